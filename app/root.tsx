@@ -1,0 +1,46 @@
+import { Links, Meta, Outlet, Scripts, ScrollRestoration, isRouteErrorResponse, useRouteLoaderData } from "react-router";
+import type { Route } from "./+types/root";
+import "./app.css";
+import { optionalUser } from "./.server/guards.server";
+import { SiteHeader } from "./components/site-header";
+import { ErrorPage } from "./components/error-page";
+
+export async function loader({ request }: Route.LoaderArgs) {
+  const user = await optionalUser(request);
+  return { user };
+}
+
+export function Layout({ children }: { children: React.ReactNode }) {
+  const data = useRouteLoaderData<typeof loader>("root");
+  return (
+    <html lang="en">
+      <head>
+        <meta charSet="utf-8" />
+        <meta name="viewport" content="width=device-width, initial-scale=1" />
+        <Meta />
+        <Links />
+      </head>
+      <body className="min-h-screen bg-paper text-ink antialiased">
+        <SiteHeader user={data?.user ?? null} />
+        <main className="mx-auto max-w-6xl px-6 pb-16 pt-6">{children}</main>
+        <ScrollRestoration />
+        <Scripts />
+      </body>
+    </html>
+  );
+}
+
+export default function App() {
+  return <Outlet />;
+}
+
+export const meta: Route.MetaFunction = () => [{ title: "Steradian" }];
+
+export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
+  if (isRouteErrorResponse(error)) {
+    const message = typeof error.data === "object" && error.data && "message" in error.data ? String(error.data.message) : undefined;
+    return <ErrorPage status={error.status} message={message} />;
+  }
+  const dev = import.meta.env.DEV;
+  return <ErrorPage status={500} message={dev && error instanceof Error ? error.message : undefined} stack={dev && error instanceof Error ? error.stack : undefined} />;
+}

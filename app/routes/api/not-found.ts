@@ -1,0 +1,9 @@
+import { apiError } from "~/.server/guards.server";
+
+export function loader() {
+  return apiError(404, "not-found", "No such API endpoint.");
+}
+
+export function action() {
+  return apiError(404, "not-found", "No such API endpoint.");
+}

@@ -1,0 +1,25 @@
+import type { Route } from "./+types/predictions";
+import { apiError, requireApiUser } from "~/.server/guards.server";
+import { EngineInputError, runPrediction } from "~/engine";
+
+export async function loader({ request }: Route.LoaderArgs) {
+  await requireApiUser(request);
+  return apiError(405, "method-not-allowed", "Send the prediction request as JSON with POST.");
+}
+
+export async function action({ request }: Route.ActionArgs) {
+  await requireApiUser(request);
+  if (request.method !== "POST") return apiError(405, "method-not-allowed", "Send the prediction request as JSON with POST.");
+  let body: unknown;
+  try {
+    body = await request.json();
+  } catch {
+    return apiError(422, "invalid-json", "The request body is not valid JSON.", { field: "" });
+  }
+  try {
+    return Response.json(runPrediction(body));
+  } catch (e) {
+    if (e instanceof EngineInputError) return apiError(422, e.code, e.message, { field: e.field });
+    throw e;
+  }
+}

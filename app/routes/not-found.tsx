@@ -1,0 +1,13 @@
+import { data } from "react-router";
+
+export function loader(): never {
+  throw data({ message: "There is no page at this address." }, { status: 404 });
+}
+
+export function action(): never {
+  throw data({ message: "There is no page at this address." }, { status: 404 });
+}
+
+export default function NotFound() {
+  return null;
+}

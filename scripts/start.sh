@@ -1,0 +1,72 @@
+#!/usr/bin/env bash
+# `npm start`: everything a fresh machine needs, then the app on http://127.0.0.1:3000.
+set -euo pipefail
+ROOT="$(cd "$(dirname "$0")/.." && pwd)"
+cd "$ROOT"
+PG_PORT="${STERADIAN_PG_PORT:-54329}"
+PG_DIR="$ROOT/.data/pg"
+DB_NAME="${STERADIAN_DB_NAME:-steradian}"
+source scripts/lib/setup.sh
+
+ensure_node_modules
+start_postgres
+ensure_database "$DB_NAME"
+
+export NODE_ENV="${NODE_ENV:-production}"
+export PORT="${PORT:-3000}"
+export HOST="${HOST:-127.0.0.1}"
+export DATABASE_URL="${DATABASE_URL:-$(database_url "$DB_NAME")}"
+export SMTP_URL="${SMTP_URL:-smtp://127.0.0.1:1025}"
+export MAIL_CATCHER_URL="${MAIL_CATCHER_URL:-http://127.0.0.1:1080}"
+export STORAGE_DIR="${STORAGE_DIR:-$ROOT/storage}"
+export APP_URL="${APP_URL:-http://$HOST:$PORT}"
+if [ -z "${SESSION_SECRET:-}" ]; then
+  # A local secret kept in .data so sessions survive a restart; a real deployment sets its own.
+  [ -f .data/session-secret ] || head -c 32 /dev/urandom | base64 > .data/session-secret
+  SESSION_SECRET="$(cat .data/session-secret)"; export SESSION_SECRET
+fi
+
+log "migrating the database"
+npx tsx db/migrate.ts
+log "seeding the demo scenario"
+npx tsx db/seed.ts
+
+if [ ! -f build/server/index.js ] || [ -n "$(find app -newer build/server/index.js -print -quit)" ] \
+   || [ package-lock.json -nt build/server/index.js ]; then
+  log "building the app"
+  npx react-router build >/dev/null
+fi
+
+pids=()
+cleanup() {
+  trap - INT TERM EXIT
+  log "shutting down"
+  for p in "${pids[@]}"; do kill -TERM "$p" 2>/dev/null || true; done
+  for p in "${pids[@]}"; do wait "$p" 2>/dev/null || true; done
+  stop_postgres
+  exit 0
+}
+trap cleanup INT TERM EXIT
+
+node_modules/.bin/tsx scripts/mail-catcher.ts --smtp "${SMTP_URL##*:}" --http "${MAIL_CATCHER_URL##*:}" &
+pids+=($!)
+node_modules/.bin/tsx scripts/prepare-storage.ts
+node scripts/serve.js &
+pids+=($!)
+
+sleep 1.5
+cat <<MSG
+
+  Steradian is running at $APP_URL
+
+  Demo sign-ins (invented collaboration, password for all: demo-steradian-2026):
+    contributor          ada.contributor@example.org
+    co-author            bruno.coauthor@example.org
+    corresponding author carla.corresponding@example.org
+    site admin           admin@example.org
+  Captured e-mail: sign in as the site admin and open "Mail".
+  Ctrl-C stops the app, the mail catcher and PostgreSQL.
+
+MSG
+wait -n "${pids[@]}" || true
+cleanup

@@ -1,0 +1,44 @@
+import { defineConfig } from "vitest/config";
+
+// Kept apart from vite.config.ts so that the React Router plugin never loads in tests.
+export default defineConfig({
+  resolve: { tsconfigPaths: true },
+  test: {
+    projects: [
+      {
+        extends: true,
+        test: {
+          name: "unit",
+          include: ["app/**/*.test.ts", "db/**/*.test.ts", "scripts/**/*.test.ts"],
+          environment: "node",
+          setupFiles: ["tests/setup/fail-on-console-error.ts"],
+        },
+      },
+      {
+        extends: true,
+        test: {
+          name: "integration",
+          include: ["tests/integration/**/*.test.ts"],
+          environment: "node",
+          globalSetup: ["tests/setup/global-integration.ts"],
+          setupFiles: ["tests/setup/fail-on-console-error.ts"],
+          testTimeout: 30_000,
+          hookTimeout: 60_000,
+        },
+      },
+      {
+        extends: true,
+        test: {
+          name: "e2e",
+          include: ["tests/e2e/**/*.test.ts"],
+          environment: "node",
+          globalSetup: ["tests/setup/global-e2e.ts"],
+          setupFiles: ["tests/setup/fail-on-console-error.ts"],
+          fileParallelism: false,
+          testTimeout: 90_000,
+          hookTimeout: 180_000,
+        },
+      },
+    ],
+  },
+});
