@@ -1,0 +1,60 @@
+import type { ReactionMasses, TwoBodyKinematics } from "./two-body-kinematics";
+
+export type ProcessId =
+  | "scalar-annihilation"
+  | "scalar-compton"
+  | "photon-fusion-scalar"
+  | "scalar-pair-production"
+  | "pair-annihilation"
+  | "compton"
+  | "breit-wheeler"
+  | "muon-pair"
+  | "bhabha"
+  | "moller";
+
+export type Frame = "lab" | "cm";
+
+/** What the page prints beside a prediction: the conventions of DESIGN.md for one process. */
+export interface ProcessInfo {
+  readonly id: ProcessId;
+  /** The reaction in Unicode, e.g. "φ⁺φ⁻ → γγ". */
+  readonly reaction: string;
+  readonly theory: "scalar QED" | "QED" | "QED + point-like scalar";
+  readonly frames: readonly Frame[];
+  /** The particle whose polar angle θ is. */
+  readonly referenceParticle: string;
+  /** The particle whose direction is the z axis (the beam in the lab frame). */
+  readonly axisParticle: string;
+  /** Lab frame and beam energies: the beam on the target at rest. */
+  readonly beamParticle: string;
+  readonly targetParticle: string;
+  /** dσ/dΩ counts one particle in dΩ (no ½); totals are ½∫4π. */
+  readonly identicalFinalParticles: boolean;
+  /** Default of the request's "mass", GeV, and what it means. */
+  readonly defaultMass: number;
+  readonly massMeaning: string;
+  /** Default of the request's "finalMass", GeV, or null when the process has none. */
+  readonly defaultFinalMass: number | null;
+  readonly finalMassMeaning: string | null;
+  /** Label of the final pair for threshold messages, e.g. "φ⁺φ⁻". */
+  readonly finalStateLabel: string;
+  /** The tree-level dσ/dΩ diverges at θ = 0 / θ = 180° (t- or u-channel photon exchange). */
+  readonly divergesForward: boolean;
+  readonly divergesBackward: boolean;
+  /** A composite-scalar form factor may multiply this process. */
+  readonly acceptsScalarFormFactor: boolean;
+  /** The initial state has no massive particle that could be at rest (γγ): only √s is meaningful. */
+  readonly needsSqrtS: boolean;
+}
+
+/**
+ * A process: its conventions and its closed form. `amplitudeSquared` is the unpolarised
+ * (initial-averaged, final-summed) $\overline{|\mathcal M|^2}$ at $e^2 = 4\pi\alpha$; `fillCm`
+ * is the hot path: dσ/dΩ in the CM frame (GeV⁻²/sr) at fixed s for an array of cos θ.
+ */
+export interface ProcessDefinition {
+  readonly info: ProcessInfo;
+  reactionMasses(mass: number, finalMass: number): ReactionMasses;
+  amplitudeSquared(s: number, t: number, u: number, mass: number, finalMass: number, e2: number): number;
+  fillCm(kin: TwoBodyKinematics, e2: number, cosTheta: Float64Array, out: Float64Array): void;
+}

@@ -1,0 +1,61 @@
+import { PHYSICAL_CONSTANTS } from "../physical-constants";
+import type { ProcessDefinition } from "../process-definition";
+
+/**
+ * e⁻(p₁) e⁻(p₂) → e⁻(p₃) e⁻(p₄), QED, tree level (t- and u-channel exchange, relative sign −1),
+ * averaged over the initial and summed over the final spins, electron mass m kept:
+ * $\overline{|\mathcal M|^2} = 2e^4\left[\frac{s^2+u^2+8m^2t-8m^4}{t^2} + \frac{s^2+t^2+8m^2u-8m^4}{u^2}
+ *   + \frac{2(s-2m^2)(s-6m^2)}{tu}\right]$, $t = (p_1-p_3)^2$, $u = (p_1-p_4)^2$.
+ * Dimensionless. Domain: s > 4m², t < 0, u < 0 (diverges at θ = 0 and 180°).
+ * Massless limit: $2e^4[(s^2+u^2)/t^2 + (s^2+t^2)/u^2 + 2s^2/(tu)]$ (C. Møller, Ann. Phys. 14
+ * (1932) 531; standard textbook form, *memory*).
+ * Source: derived here: the squared t-channel term from the two traces, the interference term
+ * *memory* (docs/decisions/0003); both verified against the numerical amplitude.
+ */
+export function mollerAmplitudeSquared(s: number, t: number, u: number, m: number, e2: number): number {
+  const m2 = m * m;
+  const m4 = m2 * m2;
+  return (
+    2 * e2 * e2 *
+    ((s * s + u * u + 8 * m2 * t - 8 * m4) / (t * t) +
+      (s * s + t * t + 8 * m2 * u - 8 * m4) / (u * u) +
+      (2 * (s - 2 * m2) * (s - 6 * m2)) / (t * u))
+  );
+}
+
+export const moller: ProcessDefinition = {
+  info: {
+    id: "moller",
+    reaction: "e⁻e⁻ → e⁻e⁻",
+    theory: "QED",
+    frames: ["cm"],
+    referenceParticle: "either outgoing e⁻",
+    axisParticle: "one incoming e⁻",
+    beamParticle: "e⁻",
+    targetParticle: "e⁻",
+    identicalFinalParticles: true,
+    defaultMass: PHYSICAL_CONSTANTS.electronMass,
+    massMeaning: "electron mass (GeV)",
+    defaultFinalMass: null,
+    finalMassMeaning: null,
+    finalStateLabel: "e⁻e⁻",
+    divergesForward: true,
+    divergesBackward: true,
+    acceptsScalarFormFactor: false,
+    needsSqrtS: false,
+  },
+  reactionMasses: (mass) => ({ axis: mass, partner: mass, reference: mass, recoil: mass }),
+  amplitudeSquared: (s, t, u, mass, _finalMass, e2) => mollerAmplitudeSquared(s, t, u, mass, e2),
+  fillCm(kin, e2, cosTheta, out) {
+    const m = kin.masses.axis;
+    const pref = kin.pOut / (64 * Math.PI * Math.PI * kin.s * kin.pIn);
+    const pp2 = 2 * kin.pIn * kin.pOut;
+    const t1 = kin.tForward;
+    const u1 = kin.uBackward;
+    const s = kin.s;
+    for (let i = 0; i < cosTheta.length; i++) {
+      const c = cosTheta[i];
+      out[i] = pref * mollerAmplitudeSquared(s, t1 - pp2 * (1 - c), u1 - pp2 * (1 + c), m, e2);
+    }
+  },
+};
