@@ -1,0 +1,66 @@
+import { z } from "zod";
+
+/** A column is referenced by its header name, so a saved mapping survives reordered columns. */
+const columnName = z.string().trim().min(1, "choose a column");
+
+export const errorMappingSchema = z.discriminatedUnion("kind", [
+  z.object({ kind: z.literal("symmetric"), column: columnName }),
+  z.object({ kind: z.literal("asymmetric"), minus: columnName, plus: columnName }),
+]);
+export type ErrorMapping = z.infer<typeof errorMappingSchema>;
+
+/**
+ * Which header names hold x (with an optional bin [xLow, xHigh]), y and the statistical and
+ * systematic uncertainties. Errors are magnitudes in the unit of y; an asymmetric error has
+ * a minus and a plus column, both non-negative.
+ */
+export const columnMappingSchema = z
+  .object({
+    x: columnName,
+    xLow: columnName.optional(),
+    xHigh: columnName.optional(),
+    y: columnName,
+    stat: errorMappingSchema.optional(),
+    syst: errorMappingSchema.optional(),
+  })
+  .superRefine((m, ctx) => {
+    if ((m.xLow === undefined) !== (m.xHigh === undefined)) {
+      ctx.addIssue({
+        code: "custom",
+        path: [m.xLow === undefined ? "xLow" : "xHigh"],
+        message: "a bin needs both its low and its high edge: map both columns or neither",
+      });
+    }
+    const seen = new Map<string, string>();
+    for (const [field, name] of mappedColumnEntries(m)) {
+      const first = seen.get(name);
+      if (first !== undefined) {
+        ctx.addIssue({
+          code: "custom",
+          path: field.split("."),
+          message: `column "${name}" is already mapped as ${first}; each column can hold one quantity only`,
+        });
+      } else {
+        seen.set(name, field);
+      }
+    }
+  });
+export type ColumnMapping = z.infer<typeof columnMappingSchema>;
+
+/**
+ * The mapped fields in their canonical order, as `[field, header name]`. The order is part of
+ * the dataset normal form (docs/decisions/0004-dataset-normal-form.md), so do not reorder.
+ */
+export function mappedColumnEntries(m: ColumnMapping): [string, string][] {
+  const entries: [string, string][] = [["x", m.x]];
+  if (m.xLow !== undefined) entries.push(["xLow", m.xLow]);
+  if (m.xHigh !== undefined) entries.push(["xHigh", m.xHigh]);
+  entries.push(["y", m.y]);
+  for (const key of ["stat", "syst"] as const) {
+    const e = m[key];
+    if (e === undefined) continue;
+    if (e.kind === "symmetric") entries.push([`${key}.column`, e.column]);
+    else entries.push([`${key}.minus`, e.minus], [`${key}.plus`, e.plus]);
+  }
+  return entries;
+}

@@ -1,0 +1,50 @@
+import { describe, expect, it } from "vitest";
+import { parseNumberField } from "./parse-number-field";
+
+describe("parseNumberField", () => {
+  it.each([
+    ["1.5", 1.5],
+    [" 1.5 ", 1.5],
+    ["-0.25", -0.25],
+    ["+3", 3],
+    ["1.", 1],
+    [".5", 0.5],
+    ["2.5e-3", 0.0025],
+    ["1E6", 1e6],
+    ["0", 0],
+  ])("reads %j as %d", (text, value) => {
+    expect(parseNumberField(text)).toEqual({ ok: true, value });
+  });
+
+  it("refuses a decimal comma and says to write a decimal point", () => {
+    const r = parseNumberField("1,5");
+    expect(r.ok).toBe(false);
+    if (r.ok) return;
+    expect(r.code).toBe("decimal-comma");
+    expect(r.reason).toContain("decimal point");
+    expect(r.reason).toContain("write 1.5");
+  });
+
+  it("refuses a decimal comma with thousands dots and suggests the plain number", () => {
+    const r = parseNumberField("1.234,5");
+    expect(r).toMatchObject({ ok: false, code: "decimal-comma" });
+    if (!r.ok) expect(r.reason).toContain("write 1234.5");
+  });
+
+  it.each(["NaN", "nan", "inf", "-Infinity", "+inf", "∞"])("refuses %j as not finite", (text) => {
+    expect(parseNumberField(text)).toMatchObject({ ok: false, code: "not-finite" });
+  });
+
+  it("refuses a number too large for a double", () => {
+    expect(parseNumberField("1e400")).toMatchObject({ ok: false, code: "not-finite" });
+  });
+
+  it.each(["abc", "0x10", "1.5d0", "1 000", "--1", "1e", "e5", "1.2.3", "12%"])("refuses %j as not a number", (text) => {
+    expect(parseNumberField(text)).toMatchObject({ ok: false, code: "not-a-number" });
+  });
+
+  it("refuses an empty or blank field", () => {
+    expect(parseNumberField("")).toMatchObject({ ok: false, code: "empty-value" });
+    expect(parseNumberField("   ")).toMatchObject({ ok: false, code: "empty-value" });
+  });
+});

@@ -1,0 +1,51 @@
+export type NumberFieldResult =
+  | { ok: true; value: number }
+  | { ok: false; code: "empty-value" | "not-a-number" | "decimal-comma" | "not-finite"; reason: string };
+
+// A plain decimal with an optional exponent; no thousands separators, no hex, no Fortran "d".
+const DECIMAL = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
+// "1,5", "-0,25e-3", "1.234,5": a comma where a decimal point is expected.
+const DECIMAL_COMMA = /^[+-]?(?:\d{1,3}(?:\.\d{3})*|\d+),\d*(?:[eE][+-]?\d+)?$/;
+const NOT_FINITE = /^[+-]?(?:nan|inf|infinity|∞)$/i;
+
+/**
+ * Reads one CSV field as a number, strictly: surrounding spaces are ignored, anything else
+ * that is not a plain decimal number is refused with a reason that says what to write instead.
+ */
+export function parseNumberField(raw: string): NumberFieldResult {
+  const text = raw.trim();
+  if (text === "") return { ok: false, code: "empty-value", reason: "is empty; write a number" };
+  if (DECIMAL.test(text)) {
+    const value = Number(text);
+    if (Number.isFinite(value)) return { ok: true, value };
+    return {
+      ok: false,
+      code: "not-finite",
+      reason: `"${text}" is too large for a double-precision number; write it in a smaller unit or check the exponent`,
+    };
+  }
+  if (DECIMAL_COMMA.test(text)) {
+    const suggestion = text.replace(/\./g, "").replace(",", ".");
+    return {
+      ok: false,
+      code: "decimal-comma",
+      reason: `"${text}" has a comma where a decimal point is expected: write ${suggestion} (numbers take a decimal point and no thousands separators)`,
+    };
+  }
+  if (NOT_FINITE.test(text)) {
+    return {
+      ok: false,
+      code: "not-finite",
+      reason: `"${text}" is not a finite number; give a measured value or remove the row`,
+    };
+  }
+  return {
+    ok: false,
+    code: "not-a-number",
+    reason: `"${truncate(text)}" is not a number; write a plain decimal number such as 0.25 or 2.5e-3`,
+  };
+}
+
+function truncate(text: string): string {
+  return text.length > 40 ? `${text.slice(0, 40)}…` : text;
+}
