@@ -36,6 +36,8 @@ export default function App() {
 
 export const meta: Route.MetaFunction = () => [{ title: "Steradian" }];
 
+export const links: Route.LinksFunction = () => [{ rel: "icon", href: "/favicon.svg", type: "image/svg+xml" }];
+
 export function ErrorBoundary({ error }: Route.ErrorBoundaryProps) {
   if (isRouteErrorResponse(error)) {
     const message = typeof error.data === "object" && error.data && "message" in error.data ? String(error.data.message) : undefined;

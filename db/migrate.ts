@@ -1,25 +1,23 @@
 // Runs the Kysely migrations in db/migrations against DATABASE_URL (through tsx: the
 // migrations are TypeScript). `--down` reverts the newest one.
-import { promises as fs } from "node:fs";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
-import { FileMigrationProvider, Kysely, Migrator, PostgresDialect } from "kysely";
+import { Kysely, Migrator, NO_MIGRATIONS, PostgresDialect } from "kysely";
 import pg from "pg";
+import { MIGRATIONS } from "./migration-list";
 
-export async function migrateToLatest(databaseUrl: string, direction: "up" | "down" = "up") {
+/** "up": to the newest; "down": revert the newest one; "reset": revert them all. */
+export async function migrateToLatest(databaseUrl: string, direction: "up" | "down" | "reset" = "up") {
   const db = new Kysely<unknown>({
     dialect: new PostgresDialect({ pool: new pg.Pool({ connectionString: databaseUrl, max: 1 }) }),
   });
   const migrator = new Migrator({
     db,
-    provider: new FileMigrationProvider({
-      fs,
-      path,
-      migrationFolder: path.join(path.dirname(fileURLToPath(import.meta.url)), "migrations"),
-    }),
+    provider: { getMigrations: async () => MIGRATIONS },
   });
   try {
-    const { error, results } = direction === "up" ? await migrator.migrateToLatest() : await migrator.migrateDown();
+    const { error, results } =
+      direction === "up" ? await migrator.migrateToLatest() : direction === "down" ? await migrator.migrateDown() : await migrator.migrateTo(NO_MIGRATIONS);
     for (const r of results ?? []) {
       if (r.status === "Error") console.error(`migration ${r.migrationName} failed`);
       else if (process.env.MIGRATE_QUIET !== "1") console.log(`migration ${r.migrationName}: ${r.status.toLowerCase()}`);

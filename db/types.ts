@@ -88,6 +88,50 @@ export interface AuditEventTable {
   ip: string | null;
 }
 
+export interface DatasetTable {
+  id: Generated<string>;
+  manuscript_id: string;
+  name: string;
+  quantity: Json;
+  mapping: Json | null;
+  process: string | null;
+  beam_energy_gev: number | null;
+  target: string | null;
+  description: Generated<string>;
+  is_demo: Generated<boolean>;
+  created_by: string;
+  created_at: Generated<Timestamp>;
+}
+
+export interface DatasetRevisionTable {
+  id: Generated<string>;
+  dataset_id: string;
+  number: number;
+  content_hash: string;
+  raw_sha256: string;
+  raw_key: string;
+  raw_filename: string;
+  raw_bytes: number;
+  row_count: number;
+  quantity: Json;
+  mapping: Json;
+  created_by: string;
+  created_at: Generated<Timestamp>;
+}
+
+export interface DatasetRowTable {
+  revision_id: string;
+  idx: number;
+  x: number;
+  x_low: number | null;
+  x_high: number | null;
+  y: number;
+  stat_minus: number | null;
+  stat_plus: number | null;
+  syst_minus: number | null;
+  syst_plus: number | null;
+}
+
 export interface Database {
   app_user: AppUserTable;
   manuscript: ManuscriptTable;
@@ -97,6 +141,9 @@ export interface Database {
   api_token: ApiTokenTable;
   sign_in_attempt: SignInAttemptTable;
   audit_event: AuditEventTable;
+  dataset: DatasetTable;
+  dataset_revision: DatasetRevisionTable;
+  dataset_row: DatasetRowTable;
 }
 
 export type AppUser = Selectable<AppUserTable>;
@@ -107,3 +154,6 @@ export type Membership = Selectable<MembershipTable>;
 export type Invitation = Selectable<InvitationTable>;
 export type ApiToken = Selectable<ApiTokenTable>;
 export type AuditEvent = Selectable<AuditEventTable>;
+export type Dataset = Selectable<DatasetTable>;
+export type DatasetRevision = Selectable<DatasetRevisionTable>;
+export type DatasetRow = Selectable<DatasetRowTable>;

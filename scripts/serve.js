@@ -13,7 +13,10 @@ app.disable("x-powered-by");
 app.use(compression());
 app.use("/assets", express.static("build/client/assets", { immutable: true, maxAge: "1y" }));
 app.use(express.static("build/client", { maxAge: "1h" }));
-app.all("/{*splat}", createRequestHandler({ build, mode: process.env.NODE_ENV }));
+app.all(
+  "/{*splat}",
+  createRequestHandler({ build, mode: process.env.NODE_ENV, getLoadContext: (req) => ({ ip: req.ip ?? "unknown" }) }),
+);
 
 const server = app.listen(port, host, () => {
   console.log(`[steradian] serving on http://${host}:${port}`);

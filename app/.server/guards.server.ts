@@ -78,7 +78,7 @@ export async function requirePermission(
       : data({ message: "No manuscript with that address is visible to you." }, { status: 404 });
   }
   if (!can(role, action)) {
-    const message = `This needs the role of ${rolesFor(action)}; you are a ${ROLE_LABELS[role]} here.`;
+    const message = `This needs the role of ${rolesFor(action)}; your role here is ${ROLE_LABELS[role]}.`;
     throw mode === "api"
       ? apiError(403, "forbidden", message, { action, requiredRoles: rolesFor(action) })
       : data({ message, action }, { status: 403 });

@@ -1,0 +1,11 @@
+// Every migration, imported statically so that tsx, vitest and the bundler all load them the
+// same way (Kysely's file provider uses a dynamic import() that plain Node cannot apply to .ts).
+// db/migration-list.test.ts fails when a file in db/migrations/ is missing here.
+import type { Migration } from "kysely";
+import * as m20261201_1200 from "./migrations/2026_12_01_1200_create_accounts_and_manuscripts";
+import * as m20261201_1500 from "./migrations/2026_12_01_1500_create_datasets";
+
+export const MIGRATIONS: Record<string, Migration> = {
+  "2026_12_01_1200_create_accounts_and_manuscripts": m20261201_1200,
+  "2026_12_01_1500_create_datasets": m20261201_1500,
+};
