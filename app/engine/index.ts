@@ -11,3 +11,7 @@ export { canonicalJson } from "./canonical-json";
 export { parametersHash } from "./parameters-hash";
 export { integrateAdaptive, type QuadratureOptions, type QuadratureResult } from "./adaptive-quadrature";
 export type { AngleVariable, Observable } from "./observables";
+export { compareToData, compareWithNormalisation, type Comparison, type NormalisedComparison } from "./statistics/compare-to-data";
+export { chiSquarePValue } from "./statistics/chi-square-p-value";
+export { envelopeBand, type Band } from "./statistics/envelope-band";
+export { uncertaintyTowards, type MeasuredPoint, type Uncertainty } from "./statistics/measured-point";
