@@ -1,8 +1,13 @@
 import type { ColumnType, Generated, Insertable, Selectable, Updateable } from "kysely";
 
 // The typed database interface; kept by hand beside the migrations in db/migrations.
+// Kysely's Generated<> does not unwrap a ColumnType, so the variants are spelled out.
 type Timestamp = ColumnType<Date, Date | string, Date | string>;
+type GeneratedTimestamp = ColumnType<Date, Date | string | undefined, Date | string>;
+type NullableTimestamp = ColumnType<Date | null, Date | string | null | undefined, Date | string | null>;
 type Json = ColumnType<unknown, string, string>;
+type GeneratedJson = ColumnType<unknown, string | undefined, string>;
+type NullableJson = ColumnType<unknown, string | null | undefined, string | null>;
 
 export type SiteRole = "member" | "admin";
 export type UserStatus = "pending" | "active" | "disabled";
@@ -15,9 +20,9 @@ export interface AppUserTable {
   password_hash: string | null;
   site_role: Generated<SiteRole>;
   status: Generated<UserStatus>;
-  email_confirmed_at: Timestamp | null;
+  email_confirmed_at: NullableTimestamp;
   is_demo: Generated<boolean>;
-  created_at: Generated<Timestamp>;
+  created_at: GeneratedTimestamp;
 }
 
 export interface ManuscriptTable {
@@ -26,14 +31,14 @@ export interface ManuscriptTable {
   journal: string | null;
   is_demo: Generated<boolean>;
   created_by: string;
-  created_at: Generated<Timestamp>;
+  created_at: GeneratedTimestamp;
 }
 
 export interface MembershipTable {
   manuscript_id: string;
   user_id: string;
   role: MemberRole;
-  added_at: Generated<Timestamp>;
+  added_at: GeneratedTimestamp;
 }
 
 export interface InvitationTable {
@@ -43,9 +48,9 @@ export interface InvitationTable {
   role: MemberRole;
   token_hash: string;
   invited_by: string;
-  created_at: Generated<Timestamp>;
+  created_at: GeneratedTimestamp;
   expires_at: Timestamp;
-  accepted_at: Timestamp | null;
+  accepted_at: NullableTimestamp;
   accepted_by: string | null;
 }
 
@@ -54,9 +59,9 @@ export interface OneTimeTokenTable {
   user_id: string;
   purpose: "confirm-email" | "reset-password";
   token_hash: string;
-  created_at: Generated<Timestamp>;
+  created_at: GeneratedTimestamp;
   expires_at: Timestamp;
-  used_at: Timestamp | null;
+  used_at: NullableTimestamp;
 }
 
 export interface ApiTokenTable {
@@ -65,9 +70,9 @@ export interface ApiTokenTable {
   name: string;
   token_hash: string;
   prefix: string;
-  created_at: Generated<Timestamp>;
-  last_used_at: Timestamp | null;
-  revoked_at: Timestamp | null;
+  created_at: GeneratedTimestamp;
+  last_used_at: NullableTimestamp;
+  revoked_at: NullableTimestamp;
 }
 
 export interface SignInAttemptTable {
@@ -75,16 +80,16 @@ export interface SignInAttemptTable {
   email: string;
   ip: string;
   succeeded: boolean;
-  at: Generated<Timestamp>;
+  at: GeneratedTimestamp;
 }
 
 export interface AuditEventTable {
   id: Generated<number>;
-  at: Generated<Timestamp>;
+  at: GeneratedTimestamp;
   actor_id: string | null;
   manuscript_id: string | null;
   action: string;
-  detail: Generated<Json>;
+  detail: GeneratedJson;
   ip: string | null;
 }
 
@@ -93,14 +98,14 @@ export interface DatasetTable {
   manuscript_id: string;
   name: string;
   quantity: Json;
-  mapping: Json | null;
+  mapping: NullableJson;
   process: string | null;
   beam_energy_gev: number | null;
   target: string | null;
   description: Generated<string>;
   is_demo: Generated<boolean>;
   created_by: string;
-  created_at: Generated<Timestamp>;
+  created_at: GeneratedTimestamp;
 }
 
 export interface DatasetRevisionTable {
@@ -116,7 +121,7 @@ export interface DatasetRevisionTable {
   quantity: Json;
   mapping: Json;
   created_by: string;
-  created_at: Generated<Timestamp>;
+  created_at: GeneratedTimestamp;
 }
 
 export interface DatasetRowTable {

@@ -116,7 +116,7 @@ export async function resetPassword(db: Db, secret: string, password: string, ip
       .updateTable("app_user")
       .set((eb) => ({
         password_hash: passwordHash,
-        status: eb.case().when("status", "=", "pending").then("active").else(eb.ref("status")).end(),
+        status: eb.case().when("status", "=", "pending").then(eb.val<"active">("active")).else(eb.ref("status")).end(),
         email_confirmed_at: eb.fn.coalesce("email_confirmed_at", eb.val(new Date())),
       }))
       .where("id", "=", userId)

@@ -7,15 +7,12 @@ import { env } from "./env.server";
 pg.types.setTypeParser(20, (v) => Number(v));
 
 declare global {
-  // Survives dev-server reloads so that connections are not leaked.
+  // Survive dev-server reloads so that connections are not leaked.
+  var __steradianPool: pg.Pool | undefined;
   var __steradianDb: Kysely<Database> | undefined;
 }
 
-export function createDb(connectionString: string, max = 10): Kysely<Database> {
-  return new Kysely<Database>({
-    dialect: new PostgresDialect({ pool: new pg.Pool({ connectionString, max }) }),
-  });
-}
-
-export const db: Kysely<Database> = (globalThis.__steradianDb ??= createDb(env.DATABASE_URL));
+/** The raw pool, for what Kysely does not do (COPY … FROM STDIN for bulk rows). */
+export const pool: pg.Pool = (globalThis.__steradianPool ??= new pg.Pool({ connectionString: env.DATABASE_URL, max: 10 }));
+export const db: Kysely<Database> = (globalThis.__steradianDb ??= new Kysely<Database>({ dialect: new PostgresDialect({ pool }) }));
 export type Db = Kysely<Database>;

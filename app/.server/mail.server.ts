@@ -1,11 +1,11 @@
-import nodemailer from "nodemailer";
+import nodemailer, { type TransportOptions } from "nodemailer";
 import { env } from "./env.server";
 
 const transport = nodemailer.createTransport({
   url: env.SMTP_URL,
   // The local catcher speaks plain SMTP on loopback; a real relay is configured by SMTP_URL.
   ...(env.SMTP_URL.includes("127.0.0.1") || env.SMTP_URL.includes("localhost") ? { secure: false, ignoreTLS: true } : {}),
-} as nodemailer.TransportOptions);
+} as TransportOptions);
 
 export interface Message {
   to: string;

@@ -24,7 +24,7 @@ export function PredictionChart({ thetas, values, unit, frame }: Props) {
     };
     import("vega-embed").then(({ default: embed }) => {
       if (cancelled || !ref.current) return;
-      embed(ref.current, spec, { actions: false, renderer: "svg" }).then((r) => {
+      embed(ref.current, spec as never, { actions: false, renderer: "svg" }).then((r) => {
         if (cancelled) r.finalize();
         else finalize = () => r.finalize();
       });

@@ -5,7 +5,7 @@ import type { TwoBodyKinematics } from "./two-body-kinematics";
  * along +z. The CM frame moves along +z with $\beta = p_{in}/E_b^{*}$, $\gamma = E_b^{*}/m_b$, and the
  * reference particle c has $g = \beta E_c^{*}/p_{out}$ (the ratio of the CM speed to c's CM speed).
  * For g < 1 (always for a massless c) each lab angle comes from one CM angle; for g > 1 the lab
- * angle has a maximum $\sin\theta_{max} = 1/(\gamma\sqrt{g^2-1})$ and two CM angles (branches)
+ * angle has a maximum $\tan\theta_{max} = 1/(\gamma\sqrt{g^2-1})$ (at $\cos\theta^* = -1/g$) and two CM angles (branches)
  * map onto each smaller lab angle.
  */
 export interface LabFrameMap {
@@ -84,5 +84,5 @@ export function cmPerLabSolidAngle(map: LabFrameMap, cosCm: number): number {
 /** Maximum lab angle of the reference particle in degrees: 180 when g ≤ 1. */
 export function maximumLabAngleDeg(map: LabFrameMap): number {
   if (map.g <= 1) return 180;
-  return (Math.asin(1 / (map.gamma * Math.sqrt(map.g * map.g - 1))) * 180) / Math.PI;
+  return (Math.atan(1 / (map.gamma * Math.sqrt(map.g * map.g - 1))) * 180) / Math.PI;
 }

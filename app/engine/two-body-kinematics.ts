@@ -14,9 +14,10 @@ export interface ReactionMasses {
  * $p_{in} = \lambda^{1/2}(s, m_a^2, m_b^2)/(2\sqrt s)$, $E_a = (s + m_a^2 - m_b^2)/(2\sqrt s)$, …,
  * $t(\cos\theta) = (p_a - p_c)^2 = t_1 - 2 p_{in} p_{out}(1 - \cos\theta)$,
  * $u(\cos\theta) = (p_a - p_d)^2 = u_1 - 2 p_{in} p_{out}(1 + \cos\theta)$,
- * with $t_1 = m_a^2 + m_c^2 - 2\,\frac{m_a^2E_c^2 + m_c^2p_{in}^2}{E_aE_c + p_{in}p_{out}}$ (t at θ = 0)
- * and $u_1$ likewise with d (u at θ = 180°). Writing $E_aE_c - p_{in}p_{out}$ that way avoids the
- * cancellation between two large numbers at high energy. Units GeV, GeV².
+ * with $t_1 = (E_a - E_c)^2 - (p_{in} - p_{out})^2$ (t at θ = 0), $E_a - E_c = (m_a^2 - m_b^2 - m_c^2 + m_d^2)/(2\sqrt s)$,
+ * $p_{in} - p_{out} = (\lambda_{in} - \lambda_{out})/(4s(p_{in}+p_{out}))$, and $u_1$ likewise with d
+ * (u at θ = 180°). Written that way, no two large numbers are subtracted at high energy.
+ * Units GeV, GeV².
  * Source: standard relativistic kinematics (Review of Particle Physics, "Kinematics");
  * the rewriting is derived here (docs/decisions/0003-engine-conventions.md).
  */
@@ -55,11 +56,15 @@ export function twoBodyKinematics(s: number, masses: ReactionMasses): TwoBodyKin
   const energyPartner = (s + mb * mb - ma * ma) / (2 * sqrtS);
   const energyReference = (s + mc * mc - md * md) / (2 * sqrtS);
   const energyRecoil = (s + md * md - mc * mc) / (2 * sqrtS);
-  const pp = pIn * pOut;
-  const tForward =
-    ma * ma + mc * mc - (2 * (ma * ma * energyReference ** 2 + mc * mc * pIn * pIn)) / (energyAxis * energyReference + pp);
-  const uBackward =
-    ma * ma + md * md - (2 * (ma * ma * energyRecoil ** 2 + md * md * pIn * pIn)) / (energyAxis * energyRecoil + pp);
+  // t(θ=0) = (E_a − E_c)² − (p_in − p_out)², both differences written without subtracting
+  // large numbers: E_a − E_c from the masses, p_in − p_out = (λ_in − λ_out)/(4s(p_in + p_out)).
+  const [xa, xb, xc, xd] = [ma * ma, mb * mb, mc * mc, md * md];
+  const lambdaDiff = -2 * s * (xa + xb - xc - xd) + (xa - xb) ** 2 - (xc - xd) ** 2;
+  const dp = pIn + pOut > 0 ? lambdaDiff / (4 * s * (pIn + pOut)) : 0;
+  const dEc = (xa - xb - xc + xd) / (2 * sqrtS);
+  const dEd = (xa - xb - xd + xc) / (2 * sqrtS);
+  const tForward = (dEc - dp) * (dEc + dp);
+  const uBackward = (dEd - dp) * (dEd + dp);
   return { s, sqrtS, masses, pIn, pOut, energyAxis, energyPartner, energyReference, energyRecoil, tForward, uBackward };
 }
 

@@ -1,0 +1,49 @@
+import { Readable } from "node:stream";
+import type { ManuscriptAction } from "~/permissions";
+import { recordAudit } from "./audit.server";
+import { findDataset, findRevision } from "./dataset-repository.server";
+import { db } from "./db.server";
+import { type Mode, notFound, requireApiUser, requirePermission, requireUser } from "./guards.server";
+import { blobStore } from "./revision-upload.server";
+import type { SessionUser } from "./users.server";
+
+/** Authorises and finds a dataset of a manuscript; a dataset of another manuscript is a 404. */
+export async function accessDataset(mode: Mode, request: Request, manuscriptId: string, datasetId: string, action: ManuscriptAction) {
+  const user = mode === "api" ? await requireApiUser(request) : await requireUser(request);
+  const role = await requirePermission(mode, user, manuscriptId, action);
+  const dataset = await findDataset(db, manuscriptId, datasetId);
+  if (!dataset) notFound(mode, "The dataset");
+  return { user, role, dataset };
+}
+
+export function parseRevisionNumber(mode: Mode, text: string): number {
+  const m = /^r?(\d{1,9})$/.exec(text);
+  if (!m) notFound(mode, `Revision ${text}`);
+  return Number(m[1]);
+}
+
+export async function accessRevision(mode: Mode, request: Request, params: { manuscriptId: string; datasetId: string; number: string }, action: ManuscriptAction = "read:dataset") {
+  const found = await accessDataset(mode, request, params.manuscriptId, params.datasetId, action);
+  const number = parseRevisionNumber(mode, params.number);
+  const revision = await findRevision(db, found.dataset.id, number);
+  if (!revision) notFound(mode, `Revision r${number}`);
+  return { ...found, revision };
+}
+
+/** The original uploaded file, as it was received, with its own hash in the headers. */
+export async function rawFileResponse(args: { user: SessionUser; manuscriptId: string; revision: { id: string; number: number; raw_key: string; raw_filename: string; raw_sha256: string; raw_bytes: number; dataset_id: string }; ip: string | null }) {
+  const stream = await blobStore().read(args.revision.raw_key);
+  await recordAudit(db, {
+    action: "raw-file-downloaded", actorId: args.user.id, manuscriptId: args.manuscriptId, ip: args.ip,
+    detail: { datasetId: args.revision.dataset_id, revision: `r${args.revision.number}`, sha256: args.revision.raw_sha256 },
+  });
+  const safeName = args.revision.raw_filename.replace(/[^\w.\- ]+/g, "_") || `r${args.revision.number}.csv`;
+  return new Response(Readable.toWeb(stream) as ReadableStream, {
+    headers: {
+      "Content-Type": "text/csv; charset=utf-8",
+      "Content-Length": String(args.revision.raw_bytes),
+      "Content-Disposition": `attachment; filename="${safeName}"`,
+      "X-Content-SHA256": args.revision.raw_sha256,
+    },
+  });
+}

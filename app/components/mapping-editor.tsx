@@ -1,0 +1,75 @@
+import { useState } from "react";
+import { Form } from "react-router";
+import type { ColumnMapping } from "~/datasets/column-mapping";
+import type { MappingGuess } from "~/datasets/guess-mapping";
+import { Button } from "./ui/button";
+
+type Preview = { headers: string[]; rows: { line: number; fields: string[] }[]; more: boolean; delimiter: string; guess: MappingGuess };
+type ErrKind = "none" | "symmetric" | "asymmetric";
+
+function errDefaults(e: ColumnMapping["stat"] | undefined): { kind: ErrKind; sym: string; minus: string; plus: string } {
+  if (!e) return { kind: "none", sym: "", minus: "", plus: "" };
+  return e.kind === "symmetric" ? { kind: "symmetric", sym: e.column, minus: "", plus: "" } : { kind: "asymmetric", sym: "", minus: e.minus, plus: e.plus };
+}
+
+/** The mapping step: the first rows of the file, and which column holds which quantity. */
+export function MappingEditor({ pending, fileName, preview, saved, busy }: { pending: string; fileName: string; preview: Preview; saved: ColumnMapping | null; busy: boolean }) {
+  const start: Partial<ColumnMapping> = saved && saved.x && preview.headers.includes(saved.x) ? saved : preview.guess.mapping;
+  const [stat, setStat] = useState<ErrKind>(errDefaults(start.stat).kind);
+  const [syst, setSyst] = useState<ErrKind>(errDefaults(start.syst).kind);
+  const s = errDefaults(start.stat);
+  const y = errDefaults(start.syst);
+  const delim = { ",": "comma", ";": "semicolon", "\t": "tab" }[preview.delimiter] ?? preview.delimiter;
+  return (
+    <>
+      <p className="mt-1 text-sm text-ink-soft">
+        Separated by {delim}; {preview.headers.length} columns.
+        {saved ? " Pre-filled from the mapping of the previous revision." : preview.guess.guessed.length ? ` Guessed from the headers: ${preview.guess.guessed.join(", ")}. Check each choice.` : " Nothing could be guessed from the headers."}
+      </p>
+      <div className="mt-3 overflow-x-auto">
+        <table className="text-sm">
+          <thead className="border-b border-rule text-left"><tr><th className="pr-4 font-normal text-ink-faint">line</th>{preview.headers.map((h, i) => <th key={i} className="pr-4 font-medium"><span className="font-mono text-xs text-ink-faint">{i + 1}</span> {h}</th>)}</tr></thead>
+          <tbody className="font-mono text-xs">
+            {preview.rows.map((r) => <tr key={r.line}><td className="pr-4 text-ink-faint">{r.line}</td>{r.fields.map((f, i) => <td key={i} className="num pr-4">{f}</td>)}</tr>)}
+          </tbody>
+        </table>
+        {preview.more ? <p className="text-xs text-ink-faint">… more rows</p> : null}
+      </div>
+      <Form method="post" className="mt-4 grid grid-cols-3 gap-4 text-sm max-lg:grid-cols-2">
+        <input type="hidden" name="pending" value={pending} />
+        <input type="hidden" name="fileName" value={fileName} />
+        <Column label="x (required)" name="x" headers={preview.headers} value={start.x} />
+        <Column label="bin low edge" name="xLow" headers={preview.headers} value={start.xLow} optional />
+        <Column label="bin high edge" name="xHigh" headers={preview.headers} value={start.xHigh} optional />
+        <Column label="y (required)" name="y" headers={preview.headers} value={start.y} />
+        <ErrorColumns label="statistical error" prefix="stat" kind={stat} setKind={setStat} headers={preview.headers} d={s} />
+        <ErrorColumns label="systematic error" prefix="syst" kind={syst} setKind={setSyst} headers={preview.headers} d={y} />
+        <div className="col-span-full"><Button kind="primary" type="submit" disabled={busy}>{busy ? "Checking every row…" : "Check and store as a revision"}</Button></div>
+      </Form>
+    </>
+  );
+}
+
+function Column({ label, name, headers, value, optional }: { label: string; name: string; headers: string[]; value?: string; optional?: boolean }) {
+  return (
+    <label className="flex flex-col gap-1"><span className="font-medium">{label}</span>
+      <select name={name} defaultValue={value ?? ""} className="border border-rule-strong bg-paper px-2 py-1">
+        <option value="">{optional ? "— none" : "— choose a column"}</option>
+        {headers.map((h, i) => <option key={i} value={h}>{i + 1}: {h}</option>)}
+      </select>
+    </label>
+  );
+}
+
+function ErrorColumns({ label, prefix, kind, setKind, headers, d }: { label: string; prefix: string; kind: ErrKind; setKind: (k: ErrKind) => void; headers: string[]; d: { sym: string; minus: string; plus: string } }) {
+  return (
+    <fieldset className="flex flex-col gap-1">
+      <legend className="font-medium">{label}</legend>
+      <select name={`${prefix}Kind`} value={kind} onChange={(e) => setKind(e.target.value as ErrKind)} className="border border-rule-strong bg-paper px-2 py-1" aria-label={`${label}: kind`}>
+        <option value="none">none</option><option value="symmetric">symmetric ±</option><option value="asymmetric">asymmetric − / +</option>
+      </select>
+      {kind === "symmetric" ? <Column label="column" name={prefix} headers={headers} value={d.sym} /> : null}
+      {kind === "asymmetric" ? <><Column label="− column" name={`${prefix}Minus`} headers={headers} value={d.minus} /><Column label="+ column" name={`${prefix}Plus`} headers={headers} value={d.plus} /></> : null}
+    </fieldset>
+  );
+}

@@ -1,0 +1,42 @@
+import type { Route } from "./+types/datasets";
+import { recordAudit } from "~/.server/audit.server";
+import { DatasetInput } from "~/.server/dataset-input.server";
+import { datasetJson } from "~/.server/dataset-json.server";
+import { createDataset, listDatasets } from "~/.server/dataset-repository.server";
+import { db } from "~/.server/db.server";
+import { apiError, requireApiUser, requirePermission } from "~/.server/guards.server";
+import { clientIp } from "~/.server/sign-in.server";
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const user = await requireApiUser(request);
+  await requirePermission("api", user, params.manuscriptId, "read:dataset");
+  const rows = await listDatasets(db, params.manuscriptId);
+  return Response.json({ datasets: rows.map((d) => datasetJson({ ...d, mapping: null }, d.latestRevision)) });
+}
+
+export async function action({ request, params, context }: Route.ActionArgs) {
+  const user = await requireApiUser(request);
+  await requirePermission("api", user, params.manuscriptId, "create:dataset");
+  if (request.method !== "POST") return apiError(405, "method-not-allowed", "Create a dataset with POST.");
+  let body: unknown;
+  try {
+    body = await request.json();
+  } catch {
+    return apiError(422, "invalid-json", "The request body is not valid JSON.", { field: "" });
+  }
+  const parsed = DatasetInput.safeParse(body);
+  if (!parsed.success) {
+    const issue = parsed.error.issues[0];
+    return apiError(422, "invalid-dataset", issue.message, { field: issue.path.join("."), issues: parsed.error.issues.map((i) => ({ field: i.path.join("."), message: i.message })) });
+  }
+  const v = parsed.data;
+  const taken = await db.selectFrom("dataset").select("id").where("manuscript_id", "=", params.manuscriptId).where("name", "=", v.name).executeTakeFirst();
+  if (taken) return apiError(422, "name-taken", `This manuscript already has a dataset named “${v.name}”.`, { field: "name" });
+  const created = await createDataset(db, {
+    manuscriptId: params.manuscriptId, userId: user.id, name: v.name, quantity: v.quantity, mapping: v.mapping ?? null,
+    metadata: { process: v.metadata.process ?? null, beamEnergyGeV: v.metadata.beamEnergyGeV ?? null, target: v.metadata.target ?? null, description: v.metadata.description ?? "" },
+  });
+  await recordAudit(db, { action: "dataset-created", actorId: user.id, manuscriptId: params.manuscriptId, ip: clientIp(context), detail: { datasetId: created.id, name: v.name } });
+  const full = await db.selectFrom("dataset").selectAll().where("id", "=", created.id).executeTakeFirstOrThrow();
+  return Response.json({ dataset: datasetJson(full, null) }, { status: 201 });
+}

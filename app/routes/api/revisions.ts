@@ -1,0 +1,49 @@
+import type { Route } from "./+types/revisions";
+import { accessDataset } from "~/.server/dataset-access.server";
+import { limitMessage, revisionJson, uploadOutcomeResponse } from "~/.server/dataset-json.server";
+import { listRevisions } from "~/.server/dataset-repository.server";
+import { db } from "~/.server/db.server";
+import { apiError } from "~/.server/guards.server";
+import { ingestUpload, receiveUploadForm } from "~/.server/revision-upload.server";
+import { clientIp } from "~/.server/sign-in.server";
+import { columnMappingSchema } from "~/datasets/column-mapping";
+import { quantitySchema } from "~/datasets/quantity";
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const { dataset } = await accessDataset("api", request, params.manuscriptId, params.datasetId, "read:dataset");
+  return Response.json({ revisions: (await listRevisions(db, dataset.id)).map(revisionJson) });
+}
+
+export async function action({ request, params, context }: Route.ActionArgs) {
+  const { user, dataset } = await accessDataset("api", request, params.manuscriptId, params.datasetId, "upload:revision");
+  if (request.method !== "POST") return apiError(405, "method-not-allowed", "Upload a revision with POST (multipart/form-data).");
+  const form = await receiveUploadForm(request);
+  if (!form.ok) return form.limit ? apiError(413, "too-large", limitMessage(form.limit), { limit: form.limit }) : apiError(422, "invalid-upload", form.message, { field: "file" });
+  try {
+    if (!form.upload) return apiError(422, "missing-file", "Send the CSV file in a multipart field named “file”.", { field: "file" });
+    const mappingText = form.fields.get("mapping");
+    let mapping: unknown = dataset.mapping;
+    if (typeof mappingText === "string" && mappingText.trim() !== "") {
+      try {
+        mapping = JSON.parse(mappingText);
+      } catch {
+        return apiError(422, "invalid-mapping", "The “mapping” field is not valid JSON.", { field: "mapping" });
+      }
+    }
+    if (mapping == null) return apiError(422, "missing-mapping", "This dataset has no saved column mapping yet: send one in the “mapping” field.", { field: "mapping" });
+    const parsedMapping = columnMappingSchema.safeParse(mapping);
+    if (!parsedMapping.success) {
+      const i = parsedMapping.error.issues[0];
+      return apiError(422, "invalid-mapping", i.message, { field: ["mapping", ...i.path].join(".") });
+    }
+    const quantity = quantitySchema.parse(dataset.quantity);
+    const outcome = await ingestUpload({
+      manuscriptId: params.manuscriptId, datasetId: dataset.id, userId: user.id, ip: clientIp(context),
+      tempPath: form.upload.tempPath, raw: { sha256: form.upload.sha256, bytes: form.upload.bytes, fileName: form.upload.fileName },
+      mapping: parsedMapping.data, quantity,
+    });
+    return uploadOutcomeResponse(outcome);
+  } finally {
+    await form.discard();
+  }
+}

@@ -1,0 +1,174 @@
+import { Form, Link, data, redirect, useActionData, useLoaderData, useNavigation, useSearchParams } from "react-router";
+import type { Route } from "./+types/dataset";
+import { accessDataset } from "~/.server/dataset-access.server";
+import { MappingForm } from "~/.server/dataset-input.server";
+import { limitMessage } from "~/.server/dataset-json.server";
+import { listRevisions } from "~/.server/dataset-repository.server";
+import { previewCsv } from "~/.server/datasets/preview-csv.server";
+import { db } from "~/.server/db.server";
+import { env } from "~/.server/env.server";
+import { fieldErrorsOf } from "~/.server/forms.server";
+import { loadManuscriptPage } from "~/.server/manuscript-context.server";
+import { type UploadOutcome, describePending, ingestUpload, pendingId, receiveUploadForm } from "~/.server/revision-upload.server";
+import { clientIp } from "~/.server/sign-in.server";
+import { Fingerprint } from "~/components/fingerprint";
+import { ManuscriptNav } from "~/components/manuscript-nav";
+import { MappingEditor } from "~/components/mapping-editor";
+import { ProblemList } from "~/components/problem-list";
+import { describeQuantity } from "~/components/quantity-labels";
+import { Button } from "~/components/ui/button";
+import { DemoBadge, Notice } from "~/components/ui/notice";
+import { columnMappingSchema } from "~/datasets/column-mapping";
+import { quantitySchema } from "~/datasets/quantity";
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const page = await loadManuscriptPage(request, params.manuscriptId, "read:dataset");
+  const { dataset } = await accessDataset("page", request, params.manuscriptId, params.datasetId, "read:dataset");
+  const revisions = await listRevisions(db, dataset.id);
+  const url = new URL(request.url);
+  const pending = url.searchParams.get("pending");
+  let mappingStep = null;
+  if (pending && page.can["upload:revision"]) {
+    const file = await describePending(pending);
+    const preview = file ? await previewCsv(file.tempPath, { rows: 8 }) : null;
+    mappingStep = { pending, fileName: url.searchParams.get("file") ?? "upload.csv", gone: !file, preview };
+  }
+  const saved = dataset.mapping ? columnMappingSchema.safeParse(dataset.mapping) : null;
+  return { ...page, dataset, revisions, mappingStep, savedMapping: saved?.success ? saved.data : null, maxBytes: env.UPLOAD_MAX_BYTES };
+}
+
+type ActionResult =
+  | { kind: "problems"; problems: { row: number | null; column: number | null; header: string | null; message: string }[]; problemCount: number }
+  | { kind: "identical"; number: number }
+  | { kind: "error"; message: string; fieldErrors?: Record<string, string> };
+
+export async function action({ request, params, context }: Route.ActionArgs) {
+  const { user, dataset } = await accessDataset("page", request, params.manuscriptId, params.datasetId, "upload:revision");
+  const quantity = quantitySchema.parse(dataset.quantity);
+  const base = `/manuscripts/${params.manuscriptId}/datasets/${dataset.id}`;
+  const common = { manuscriptId: params.manuscriptId, datasetId: dataset.id, userId: user.id, ip: clientIp(context), quantity };
+
+  if ((request.headers.get("content-type") ?? "").startsWith("multipart/form-data")) {
+    const form = await receiveUploadForm(request);
+    if (!form.ok) return data<ActionResult>({ kind: "error", message: form.limit ? limitMessage(form.limit) : form.message }, { status: form.limit ? 413 : 422 });
+    if (!form.upload || form.upload.bytes === 0 && form.upload.fileName === "") {
+      await form.discard();
+      return data<ActionResult>({ kind: "error", message: "Choose a CSV file to upload.", fieldErrors: { file: "Choose a CSV file to upload." } }, { status: 422 });
+    }
+    const upload = form.upload;
+    const saved = dataset.mapping ? columnMappingSchema.safeParse(dataset.mapping) : null;
+    if (form.fields.get("useSaved") === "on" && saved?.success) {
+      const outcome = await ingestUpload({ ...common, tempPath: upload.tempPath, raw: { sha256: upload.sha256, bytes: upload.bytes, fileName: upload.fileName }, mapping: saved.data });
+      return answer(outcome, base);
+    }
+    // Kept in temporary storage until its columns are mapped; cleaned at the next start if abandoned.
+    throw redirect(`${base}?pending=${encodeURIComponent(pendingId(upload))}&file=${encodeURIComponent(upload.fileName)}`);
+  }
+
+  const fields = Object.fromEntries(await request.formData());
+  const pending = await describePending(String(fields.pending ?? ""));
+  if (!pending) return data<ActionResult>({ kind: "error", message: "That upload is no longer waiting (it was used, or the server restarted). Upload the file again." }, { status: 422 });
+  const mapping = MappingForm.safeParse(fields);
+  if (!mapping.success) return data<ActionResult>({ kind: "error", message: "Some columns need attention.", fieldErrors: fieldErrorsOf(mapping.error) }, { status: 422 });
+  const outcome = await ingestUpload({ ...common, tempPath: pending.tempPath, raw: { sha256: pending.sha256, bytes: pending.bytes, fileName: String(fields.fileName || "upload.csv") }, mapping: mapping.data });
+  return answer(outcome, base);
+}
+
+function answer(o: UploadOutcome, base: string) {
+  if (o.kind === "created") throw redirect(`${base}?uploaded=r${o.revision.number}`);
+  if (o.kind === "identical") return data<ActionResult>({ kind: "identical", number: o.revision.number });
+  if (o.kind === "limit") return data<ActionResult>({ kind: "error", message: limitMessage(o.limit) }, { status: 413 });
+  if (o.kind === "problems") return data<ActionResult>({ kind: "problems", problems: o.problems, problemCount: o.problemCount }, { status: 422 });
+  throw new Error("unreachable upload outcome");
+}
+
+export default function DatasetPage() {
+  const { manuscript, role, can, dataset, revisions, mappingStep, savedMapping, maxBytes } = useLoaderData<typeof loader>();
+  const result = useActionData<typeof action>() as ActionResult | undefined;
+  const [params] = useSearchParams();
+  const busy = useNavigation().state === "submitting";
+  const uploaded = params.get("uploaded");
+  return (
+    <>
+      <ManuscriptNav manuscript={manuscript} role={role} can={can} />
+      <p className="text-sm"><Link className="text-ink-soft underline underline-offset-4" to={`/manuscripts/${manuscript.id}/datasets`}>Datasets</Link> /</p>
+      <div className="flex items-baseline gap-4">
+        <h2 className="flex-1 text-2xl">{dataset.name}</h2>
+        {dataset.is_demo ? <DemoBadge /> : null}
+      </div>
+      <p className="mt-1 text-sm text-ink-soft">
+        {describeQuantity(dataset.quantity)}
+        {dataset.process ? ` · process ${dataset.process}` : ""}
+        {dataset.beam_energy_gev ? ` · beam ${dataset.beam_energy_gev} GeV` : ""}
+        {dataset.target ? ` · target ${dataset.target}` : ""}
+      </p>
+      {dataset.description ? <p className="mt-2 max-w-3xl text-sm">{dataset.description}</p> : null}
+
+      <div className="mt-4 space-y-3">
+        {uploaded && !result ? <Notice tone="ok">Stored as revision <strong className="font-mono">{uploaded}</strong>.</Notice> : null}
+        {result?.kind === "identical" ? <Notice>The content is identical to <strong className="font-mono">r{result.number}</strong>: no new revision was created.</Notice> : null}
+        {result?.kind === "error" ? <Notice tone="caution">{result.message}{result.fieldErrors ? <ul className="mt-1 list-disc pl-5">{Object.entries(result.fieldErrors).map(([k, v]) => <li key={k}><span className="font-mono">{k}</span>: {v}</li>)}</ul> : null}</Notice> : null}
+        {result?.kind === "problems" ? <ProblemList problems={result.problems} problemCount={result.problemCount} /> : null}
+      </div>
+
+      {mappingStep ? (
+        <section aria-labelledby="map-h" className="mt-6 border border-rule bg-sheet p-5">
+          <h3 id="map-h" className="text-xl">Map the columns of “{mappingStep.fileName}”</h3>
+          {mappingStep.gone ? <p className="mt-2">This upload is no longer waiting. Upload the file again.</p>
+            : mappingStep.preview && !mappingStep.preview.ok ? <div className="mt-3"><ProblemList problems={mappingStep.preview.problems} problemCount={mappingStep.preview.problems.length} /></div>
+            : mappingStep.preview?.ok ? (
+              <MappingEditor pending={mappingStep.pending} fileName={mappingStep.fileName} preview={mappingStep.preview} saved={savedMapping} busy={busy} />
+            ) : null}
+        </section>
+      ) : null}
+
+      <div className="mt-8 grid grid-cols-[1fr_20rem] gap-10 max-lg:grid-cols-1">
+        <section aria-labelledby="rev-h">
+          <h3 id="rev-h" className="text-xl">Revisions</h3>
+          {revisions.length === 0 ? <p className="mt-3 text-ink-soft">No revision yet. Upload the measured values as CSV.</p> : (
+            <table className="mt-3 w-full text-sm">
+              <thead className="border-b border-rule text-left text-ink-soft">
+                <tr><th className="py-2 font-medium">Revision</th><th className="font-medium">Rows</th><th className="font-medium">Content fingerprint</th><th className="font-medium">File</th><th className="font-medium">Uploaded</th></tr>
+              </thead>
+              <tbody className="divide-y divide-rule">
+                {revisions.map((r) => (
+                  <tr key={r.id}>
+                    <td className="py-2"><Link className="font-mono underline underline-offset-2" to={`revisions/${r.number}`}>r{r.number}</Link></td>
+                    <td className="num">{r.row_count.toLocaleString("en")}</td>
+                    <td><Fingerprint value={r.content_hash} /></td>
+                    <td>{can["download:raw"] ? <a className="underline underline-offset-2" href={`/manuscripts/${manuscript.id}/datasets/${dataset.id}/revisions/${r.number}/raw`}>{r.raw_filename}</a> : r.raw_filename}</td>
+                    <td className="num text-ink-soft">{new Date(r.created_at).toISOString().slice(0, 16).replace("T", " ")} · {r.uploaderName}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          )}
+          {revisions.length >= 2 ? (
+            <Form method="get" action="compare" className="mt-4 flex items-end gap-3 text-sm">
+              <label className="flex flex-col gap-1">From<select name="from" defaultValue={revisions[1].number} className="border border-rule-strong bg-sheet px-2 py-1">{revisions.map((r) => <option key={r.id} value={r.number}>r{r.number}</option>)}</select></label>
+              <label className="flex flex-col gap-1">To<select name="to" defaultValue={revisions[0].number} className="border border-rule-strong bg-sheet px-2 py-1">{revisions.map((r) => <option key={r.id} value={r.number}>r{r.number}</option>)}</select></label>
+              <Button type="submit">Compare row by row</Button>
+            </Form>
+          ) : null}
+        </section>
+        {can["upload:revision"] ? (
+          <aside aria-labelledby="up-h" className="border-l border-rule pl-6 max-lg:border-l-0 max-lg:pl-0">
+            <h3 id="up-h" className="text-xl">Upload a revision</h3>
+            <p className="mt-1 text-sm text-ink-soft">CSV in UTF-8 (with or without BOM), separated by commas, semicolons or tabs, with a header line. Up to {(maxBytes / 2 ** 20).toFixed(0)} MiB.</p>
+            <Form method="post" encType="multipart/form-data" className="mt-3 flex flex-col gap-3">
+              <label className="flex flex-col gap-1 text-sm font-medium">CSV file
+                <input type="file" name="file" accept=".csv,.tsv,.txt,text/csv" required className="text-sm font-normal" />
+              </label>
+              {savedMapping ? (
+                <label className="flex items-center gap-2 text-sm"><input type="checkbox" name="useSaved" defaultChecked /> Use the saved column mapping</label>
+              ) : null}
+              <Button kind="primary" type="submit" disabled={busy}>{busy ? "Checking…" : "Upload"}</Button>
+            </Form>
+          </aside>
+        ) : null}
+      </div>
+    </>
+  );
+}
+
+export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.dataset.name ?? "Dataset"} · Steradian` }];

@@ -1,0 +1,68 @@
+import { Link, useLoaderData } from "react-router";
+import { z } from "zod";
+import type { Route } from "./+types/revision-compare";
+import { accessDataset, parseRevisionNumber } from "~/.server/dataset-access.server";
+import { findRevision, revisionRows } from "~/.server/dataset-repository.server";
+import { db } from "~/.server/db.server";
+import { notFound } from "~/.server/guards.server";
+import { loadManuscriptPage } from "~/.server/manuscript-context.server";
+import { ManuscriptNav } from "~/components/manuscript-nav";
+import { diffRevisions, type RevisionRow } from "~/datasets/diff-revisions";
+
+const Query = z.object({ from: z.string().default(""), to: z.string().default("") });
+const LISTED = 500;
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const page = await loadManuscriptPage(request, params.manuscriptId, "read:dataset");
+  const { dataset } = await accessDataset("page", request, params.manuscriptId, params.datasetId, "read:dataset");
+  const q = Query.parse(Object.fromEntries(new URL(request.url).searchParams));
+  const [a, b] = await Promise.all([findRevision(db, dataset.id, parseRevisionNumber("page", q.from)), findRevision(db, dataset.id, parseRevisionNumber("page", q.to))]);
+  if (!a || !b) notFound("page", "One of the revisions");
+  const diff = diffRevisions({ label: `r${a.number}`, rows: await revisionRows(db, a.id) }, { label: `r${b.number}`, rows: await revisionRows(db, b.id) }, { maxListed: LISTED });
+  return { ...page, dataset: { id: dataset.id, name: dataset.name }, from: a.number, to: b.number, diff };
+}
+
+const FIELD_LABELS: Record<string, string> = { x: "x", xLow: "bin low", xHigh: "bin high", y: "y", statMinus: "stat −", statPlus: "stat +", systMinus: "syst −", systPlus: "syst +" };
+const fmt = (v: number | null) => (v == null ? "—" : Number(v.toPrecision(8)).toString());
+const rowText = (r: RevisionRow) => `x = ${fmt(r.x)}${r.xLow != null ? ` [${fmt(r.xLow)}, ${fmt(r.xHigh)}]` : ""}, y = ${fmt(r.y)}`;
+
+export default function Compare() {
+  const { manuscript, role, can, dataset, from, to, diff } = useLoaderData<typeof loader>();
+  return (
+    <>
+      <ManuscriptNav manuscript={manuscript} role={role} can={can} />
+      <p className="text-sm"><Link className="text-ink-soft underline underline-offset-4" to={`/manuscripts/${manuscript.id}/datasets/${dataset.id}`}>{dataset.name}</Link> /</p>
+      <h2 className="mt-1 text-2xl">Comparing <span className="font-mono">r{from}</span> with <span className="font-mono">r{to}</span></h2>
+      <p className="mt-2 font-mono text-sm" data-testid="diff-summary">{diff.summary}</p>
+      <p className="text-xs text-ink-faint">Rows matched by {diff.keyedBy === "bin" ? "their bin" : "x"}; values in canonical units.</p>
+      <section className="mt-6 space-y-6 text-sm">
+        {diff.changedCount > 0 ? (
+          <div>
+            <h3 className="text-lg">~ Changed ({diff.changedCount})</h3>
+            <table className="mt-2 w-full"><thead className="border-b border-rule text-left text-ink-soft"><tr><th className="py-1 font-medium">row</th><th className="font-medium">field</th><th className="font-medium">r{from}</th><th className="font-medium">r{to}</th></tr></thead>
+              <tbody className="num divide-y divide-rule font-mono text-xs">
+                {diff.changed.flatMap((c, i) => c.changes.map((ch, j) => (
+                  <tr key={`${i}-${j}`}><td className="py-1">{j === 0 ? rowText(c.old) : ""}</td><td>{FIELD_LABELS[ch.field]}</td><td>{fmt(ch.old)}</td><td>{fmt(ch.new)}</td></tr>
+                )))}
+              </tbody></table>
+          </div>
+        ) : null}
+        {diff.addedCount > 0 ? <RowList title={`+ Added in r${to} (${diff.addedCount})`} rows={diff.added} /> : null}
+        {diff.removedCount > 0 ? <RowList title={`− Removed since r${from} (${diff.removedCount})`} rows={diff.removed} /> : null}
+        {diff.addedCount + diff.removedCount + diff.changedCount === 0 ? <p>The two revisions have the same rows.</p> : null}
+        {Math.max(diff.addedCount, diff.removedCount, diff.changedCount) > LISTED ? <p className="text-ink-soft">Only the first {LISTED} rows of each kind are listed; the counts are exact.</p> : null}
+      </section>
+    </>
+  );
+}
+
+function RowList({ title, rows }: { title: string; rows: RevisionRow[] }) {
+  return (
+    <div>
+      <h3 className="text-lg">{title}</h3>
+      <ul className="num mt-2 divide-y divide-rule font-mono text-xs">{rows.map((r, i) => <li key={i} className="py-1">{rowText(r)}</li>)}</ul>
+    </div>
+  );
+}
+
+export const meta: Route.MetaFunction = () => [{ title: "Compare revisions · Steradian" }];

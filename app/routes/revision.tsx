@@ -1,0 +1,101 @@
+import { type ColumnDef, type SortingState, flexRender, getCoreRowModel, useReactTable } from "@tanstack/react-table";
+import { Link, useLoaderData, useNavigate, useSearchParams } from "react-router";
+import { z } from "zod";
+import type { Route } from "./+types/revision";
+import { accessRevision } from "~/.server/dataset-access.server";
+import { revisionRowsPage } from "~/.server/dataset-repository.server";
+import { ROW_SORTS } from "~/revision-row-sorts";
+import { db } from "~/.server/db.server";
+import { loadManuscriptPage } from "~/.server/manuscript-context.server";
+import { Fingerprint } from "~/components/fingerprint";
+import { ManuscriptNav } from "~/components/manuscript-nav";
+import { describeQuantity } from "~/components/quantity-labels";
+
+const PAGE_SIZE = 50;
+const Query = z.object({
+  page: z.coerce.number().int().min(1).catch(1),
+  sort: z.enum(ROW_SORTS).catch("idx"),
+  dir: z.enum(["asc", "desc"]).catch("asc"),
+});
+
+export async function loader({ request, params }: Route.LoaderArgs) {
+  const page = await loadManuscriptPage(request, params.manuscriptId, "read:dataset");
+  const { dataset, revision } = await accessRevision("page", request, params);
+  const q = Query.parse(Object.fromEntries(new URL(request.url).searchParams));
+  const pages = Math.max(1, Math.ceil(revision.row_count / PAGE_SIZE));
+  const current = Math.min(q.page, pages);
+  const rows = await revisionRowsPage(db, revision.id, { offset: (current - 1) * PAGE_SIZE, limit: PAGE_SIZE, sort: q.sort, dir: q.dir });
+  return { ...page, dataset: { id: dataset.id, name: dataset.name, quantity: dataset.quantity }, revision, rows, query: { ...q, page: current }, pages };
+}
+
+type Row = Awaited<ReturnType<typeof loader>>["rows"][number];
+
+const fmt = (v: number | null) => (v == null ? "—" : Number(v.toPrecision(8)).toString());
+
+export default function RevisionPage() {
+  const { manuscript, role, can, dataset, revision, rows, query, pages } = useLoaderData<typeof loader>();
+  const [, setParams] = useSearchParams();
+  const navigate = useNavigate();
+  const has = (k: keyof Row) => rows.some((r) => r[k] != null);
+  const columns: ColumnDef<Row>[] = [
+    { id: "idx", accessorKey: "idx", header: "#", cell: (c) => (c.getValue() as number) + 1 },
+    { id: "x", accessorKey: "x", header: "x", cell: (c) => fmt(c.getValue() as number) },
+    ...(has("x_low") ? [{ id: "x_low", accessorKey: "x_low", header: "bin low", enableSorting: false, cell: (c) => fmt(c.getValue() as number) } as ColumnDef<Row>, { id: "x_high", accessorKey: "x_high", header: "bin high", enableSorting: false, cell: (c) => fmt(c.getValue() as number) } as ColumnDef<Row>] : []),
+    { id: "y", accessorKey: "y", header: "y", cell: (c) => fmt(c.getValue() as number) },
+    ...(["stat_minus", "stat_plus", "syst_minus", "syst_plus"] as const).filter(has).map((k) => ({ id: k, accessorKey: k, header: k.replace("_", " ").replace("minus", "−").replace("plus", "+"), enableSorting: false, cell: (c) => fmt(c.getValue() as number) }) as ColumnDef<Row>),
+  ];
+  const sorting: SortingState = [{ id: query.sort, desc: query.dir === "desc" }];
+  const table = useReactTable({
+    data: rows, columns, state: { sorting, pagination: { pageIndex: query.page - 1, pageSize: PAGE_SIZE } },
+    manualSorting: true, manualPagination: true, pageCount: pages, getCoreRowModel: getCoreRowModel(),
+    onSortingChange: (updater) => {
+      const next = typeof updater === "function" ? updater(sorting) : updater;
+      const s = next[0] ?? { id: "idx", desc: false };
+      setParams({ sort: s.id, dir: s.desc ? "desc" : "asc", page: "1" });
+    },
+  });
+  const goto = (p: number) => navigate(`?sort=${query.sort}&dir=${query.dir}&page=${p}`);
+  return (
+    <>
+      <ManuscriptNav manuscript={manuscript} role={role} can={can} />
+      <p className="text-sm"><Link className="text-ink-soft underline underline-offset-4" to={`/manuscripts/${manuscript.id}/datasets/${dataset.id}`}>{dataset.name}</Link> /</p>
+      <h2 className="mt-1 text-2xl">Revision <span className="font-mono">r{revision.number}</span></h2>
+      <dl className="mt-2 grid grid-cols-[12rem_1fr] gap-y-1 text-sm">
+        <dt className="text-ink-soft">quantity</dt><dd>{describeQuantity(revision.quantity)}</dd>
+        <dt className="text-ink-soft">rows</dt><dd className="num">{revision.row_count.toLocaleString("en")}</dd>
+        <dt className="text-ink-soft">content fingerprint</dt><dd><Fingerprint value={revision.content_hash} groups={4} /></dd>
+        <dt className="text-ink-soft">original file</dt><dd>{revision.raw_filename} · <span className="num">{Number(revision.raw_bytes).toLocaleString("en")}</span> bytes · <Fingerprint value={revision.raw_sha256} /></dd>
+      </dl>
+      <p className="mt-3 text-xs text-ink-faint">Values in canonical units: angles in degrees, t in GeV², energies in GeV, cross sections in GeV⁻² (per sr, per GeV² where they apply), 12 significant digits.</p>
+      <table className="mt-4 w-full text-sm" aria-label={`Rows of r${revision.number}`}>
+        <thead className="border-b border-rule text-left">
+          {table.getHeaderGroups().map((g) => (
+            <tr key={g.id}>
+              {g.headers.map((h) => (
+                <th key={h.id} className="py-2 pr-4 font-medium" aria-sort={h.column.getIsSorted() ? (h.column.getIsSorted() === "desc" ? "descending" : "ascending") : undefined}>
+                  {h.column.getCanSort() ? (
+                    <button type="button" onClick={h.column.getToggleSortingHandler()} className="hover:text-madder">
+                      {flexRender(h.column.columnDef.header, h.getContext())} {h.column.getIsSorted() === "asc" ? "▲" : h.column.getIsSorted() === "desc" ? "▼" : "△"}
+                    </button>
+                  ) : flexRender(h.column.columnDef.header, h.getContext())}
+                </th>
+              ))}
+            </tr>
+          ))}
+        </thead>
+        <tbody className="num divide-y divide-rule font-mono text-xs">
+          {table.getRowModel().rows.map((r) => (
+            <tr key={r.id}>{r.getVisibleCells().map((c) => <td key={c.id} className="py-1 pr-4">{flexRender(c.column.columnDef.cell, c.getContext())}</td>)}</tr>
+          ))}
+        </tbody>
+      </table>
+      <nav aria-label="Pages" className="mt-4 flex items-center gap-3 text-sm">
+        <button type="button" disabled={query.page <= 1} onClick={() => goto(query.page - 1)} className="underline disabled:opacity-40">Previous</button>
+        <span>page <span className="num">{query.page}</span> of <span className="num">{pages}</span></span>
+        <button type="button" disabled={query.page >= pages} onClick={() => goto(query.page + 1)} className="underline disabled:opacity-40">Next</button>
+      </nav>
+    </>
+  );
+}
+
+export const meta: Route.MetaFunction = ({ data }) => [{ title: `r${data?.revision.number ?? ""} · ${data?.dataset.name ?? ""} · Steradian` }];
