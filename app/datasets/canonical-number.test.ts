@@ -1,6 +1,6 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { canonicalNumber, formatCanonicalNumber } from "./canonical-number";
+import { canonicalNumber, canonicalTextFromPrecision, canonicalTextOfShortDecimal, formatCanonicalNumber } from "./canonical-number";
 
 describe("canonical numbers", () => {
   it("writes the same number written differently the same way", () => {
@@ -44,5 +44,42 @@ describe("canonical numbers", () => {
         expect(rel).toBeLessThanOrEqual(5e-12);
       }),
     );
+  });
+});
+
+describe("fast canonical texts agree with formatting the canonical value", () => {
+  const shortDecimal = fc
+    .tuple(
+      fc.constantFrom("", "-", "+"),
+      fc.stringMatching(/^\d{0,6}$/),
+      fc.option(fc.stringMatching(/^\d{0,6}$/), { nil: undefined }),
+      fc.option(fc.integer({ min: -30, max: 30 }), { nil: undefined }),
+    )
+    .map(([sign, int, frac, exp]) => `${sign}${int}${frac === undefined ? "" : "." + frac}${exp === undefined ? "" : "e" + exp}`)
+    .filter((t) => t.length <= 12 && /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/.test(t));
+
+  it("canonicalTextOfShortDecimal", () => {
+    fc.assert(
+      fc.property(shortDecimal, (text) => {
+        const value = Number(text);
+        expect(canonicalTextOfShortDecimal(text, value)).toBe(formatCanonicalNumber(value));
+      }),
+      { numRuns: 5000 },
+    );
+    for (const t of ["0", "-0", "0.0", "0.000001", "0.0000001", "30", "30.0", "1.5e0", "+1", "-0.25", ".5", "5."]) {
+      expect(canonicalTextOfShortDecimal(t, Number(t)), t).toBe(formatCanonicalNumber(Number(t)));
+    }
+  });
+
+  it("canonicalTextFromPrecision", () => {
+    fc.assert(
+      fc.property(fc.double({ noNaN: true, noDefaultInfinity: true }).filter((v) => v !== 0), (v) => {
+        expect(canonicalTextFromPrecision(v.toPrecision(12))).toBe(formatCanonicalNumber(v));
+      }),
+      { numRuns: 20000 },
+    );
+    for (const v of [1.5, 1e-6, 9.99999999999e-7, 1e-7, 123456789012, 1.5e12, 1e21, -3.85228419243e-7, 100]) {
+      expect(canonicalTextFromPrecision(v.toPrecision(12)), String(v)).toBe(formatCanonicalNumber(v));
+    }
   });
 });

@@ -20,3 +20,37 @@ export function canonicalNumber(value: number): number {
 export function formatCanonicalNumber(value: number): string {
   return String(canonicalNumber(value));
 }
+
+// Plain decimals that Number::toString writes exactly so: no sign but "-", no redundant
+// zeros, not below 1e-6 (written with an exponent there). "0" on its own is canonical too.
+const ALREADY_CANONICAL = /^-?(?:[1-9]\d*(?:\.\d*[1-9])?|0\.0{0,5}[1-9](?:\d*[1-9])?)$|^0$/;
+
+/**
+ * `formatCanonicalNumber(Number(text))` for a plain decimal `text` of at most 12 characters
+ * (so at most 12 significant digits: the value is its own canonical value), without
+ * formatting the number again when the text is already written the canonical way.
+ */
+export function canonicalTextOfShortDecimal(text: string, value: number): string {
+  return ALREADY_CANONICAL.test(text) ? text : String(value === 0 ? 0 : value);
+}
+
+/**
+ * `formatCanonicalNumber(v)` from `p = v.toPrecision(12)`, which the caller has computed
+ * anyway for the canonical value: the 12 digits with trailing zeros removed are the shortest
+ * decimal that reads back to Number(p) (no other decimal of 12 digits or fewer lies within
+ * half an ulp of it), and toPrecision and Number::toString switch to an exponent at the same
+ * point below 1e-6. Above 1e12 toPrecision uses an exponent where Number::toString does not,
+ * so those few are formatted again, as are three-digit exponents (subnormal numbers have
+ * fewer than 12 significant digits, where the argument fails). Expects p of a non-zero
+ * finite number.
+ */
+export function canonicalTextFromPrecision(p: string): string {
+  const e = p.indexOf("e");
+  if (e !== -1 && (p.charCodeAt(e + 1) === 43 /* "+" */ || p.length - e > 4)) return String(Number(p));
+  if (p.indexOf(".") === -1) return p;
+  const mantissaEnd = e === -1 ? p.length : e;
+  let end = mantissaEnd;
+  while (p.charCodeAt(end - 1) === 48 /* "0" */) end--;
+  if (p.charCodeAt(end - 1) === 46 /* "." */) end--;
+  return e === -1 ? p.slice(0, end) : p.slice(0, end) + p.slice(e);
+}

@@ -1,5 +1,6 @@
+import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { parseNumberField } from "./parse-number-field";
+import { parseNumberField, readPlainDecimal } from "./parse-number-field";
 
 describe("parseNumberField", () => {
   it.each([
@@ -46,5 +47,23 @@ describe("parseNumberField", () => {
   it("refuses an empty or blank field", () => {
     expect(parseNumberField("")).toMatchObject({ ok: false, code: "empty-value" });
     expect(parseNumberField("   ")).toMatchObject({ ok: false, code: "empty-value" });
+  });
+});
+
+describe("readPlainDecimal", () => {
+  const PLAIN = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/;
+  const reference = (text: string) => (PLAIN.test(text) && Number.isFinite(Number(text)) ? Number(text) : NaN);
+
+  it("accepts exactly the finite plain decimals", () => {
+    const alphabet = fc.constantFrom(..."0123456789+-.eExXoObB_ In".split(""));
+    fc.assert(
+      fc.property(fc.array(alphabet, { maxLength: 10 }).map((a) => a.join("").trim()), (text) => {
+        expect(readPlainDecimal(text)).toBe(reference(text));
+      }),
+      { numRuns: 20000 },
+    );
+    for (const t of ["0x1A", "0X1a", "0o7", "0b1", "Infinity", "-Infinity", "", "1_000", "1e400", ".", "e1", "00.5", "0.5", "-.5e-3"]) {
+      expect(readPlainDecimal(t), t).toBe(reference(t));
+    }
   });
 });

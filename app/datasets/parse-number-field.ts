@@ -9,6 +9,23 @@ const DECIMAL_COMMA = /^[+-]?(?:\d{1,3}(?:\.\d{3})*|\d+),\d*(?:[eE][+-]?\d+)?$/;
 const NOT_FINITE = /^[+-]?(?:nan|inf|infinity|∞)$/i;
 
 /**
+ * The hot path of `parseNumberField` for a trimmed field: the number, or NaN when the field is
+ * anything but a plain finite decimal (then `parseNumberField` says why).
+ */
+export function readPlainDecimal(text: string): number {
+  // Number() accepts exactly the plain decimals of DECIMAL, plus "Infinity" (not finite),
+  // "" (0) and unsigned 0x/0o/0b literals; excluding those three is cheaper than the regex,
+  // which matters at a few million fields per upload.
+  if (text.length === 0) return NaN;
+  if (text.length > 1 && text.charCodeAt(0) === 48 /* "0" */) {
+    const c = text.charCodeAt(1) | 0x20;
+    if (c === 120 /* x */ || c === 111 /* o */ || c === 98 /* b */) return NaN;
+  }
+  const value = Number(text);
+  return value - value === 0 ? value : NaN;
+}
+
+/**
  * Reads one CSV field as a number, strictly: surrounding spaces are ignored, anything else
  * that is not a plain decimal number is refused with a reason that says what to write instead.
  */

@@ -1,12 +1,12 @@
-import { canonicalNumber } from "./canonical-number";
+import { CANONICAL_DIGITS, canonicalTextFromPrecision, canonicalTextOfShortDecimal } from "./canonical-number";
 import { mappedColumnEntries, type ColumnMapping } from "./column-mapping";
 import type { DatasetProblem } from "./dataset-problem";
 import { normalFormSlots, SLOT } from "./normal-form";
-import { parseNumberField } from "./parse-number-field";
+import { parseNumberField, readPlainDecimal, type NumberFieldResult } from "./parse-number-field";
 import type { ProblemCollector } from "./problem-collector";
 import { X_LABELS, type QuantityDescription, type XKind } from "./quantity";
 import { resolveQuantityScales, type QuantityScales } from "./quantity-scales";
-import { xDomainViolation } from "./x-domain";
+import { isInXDomain, xDomainViolation } from "./x-domain";
 
 export type RowValidatorResult =
   | { ok: true; validator: RowValidator }
@@ -106,7 +106,13 @@ export class RowValidator {
   private readonly role: Role[];
   private readonly label: string[];
   private readonly raw: string[];
+  private readonly text: string[];
   private readonly entries: { field: string; index: number; slots: readonly number[] }[];
+  // The same entries as flat arrays for the per-row loop: field index, first slot, and the
+  // second slot a symmetric error fills (-1 if none).
+  private readonly entryIndex: Int32Array;
+  private readonly entrySlot: Int32Array;
+  private readonly entryTwin: Int32Array;
 
   constructor(
     readonly headers: readonly string[],
@@ -123,7 +129,11 @@ export class RowValidator {
     this.role = new Array<Role>(8);
     this.label = new Array<string>(8);
     this.raw = new Array<string>(8).fill("");
+    this.text = new Array<string>(8).fill("");
     this.entries = fields.map((f) => ({ ...f, slots: SLOT_OF_FIELD[f.field] }));
+    this.entryIndex = Int32Array.from(this.entries, (e) => e.index);
+    this.entrySlot = Int32Array.from(this.entries, (e) => e.slots[0]);
+    this.entryTwin = Int32Array.from(this.entries, (e) => e.slots[1] ?? -1);
     for (const { field, index, slots } of this.entries) {
       for (const slot of slots) {
         this.fieldIndex[slot] = index;
@@ -151,39 +161,62 @@ export class RowValidator {
       return false;
     }
     let ok = true;
-    for (const { index, slots } of this.entries) {
-      const raw = fields[index];
-      const parsed = parseNumberField(raw);
-      const slot = slots[0];
-      if (!parsed.ok) {
-        const reason =
-          parsed.code === "empty-value" && this.role[slot] === "error"
-            ? `is empty; write 0 if this point has no ${this.label[slot]} uncertainty`
-            : parsed.reason;
-        problems.add(this.problem(parsed.code, line, index, parsed.code === "empty-value" ? `the field ${reason}` : reason));
+    const { entryIndex, entrySlot, entryTwin, factor, raw, text: texts } = this;
+    for (let e = 0; e < entryIndex.length; e++) {
+      const index = entryIndex[e];
+      const slot = entrySlot[e];
+      const twin = entryTwin[e];
+      const text = fields[index].trim();
+      const value = readPlainDecimal(text);
+      if (value !== value) {
         ok = false;
-        for (const s of slots) out[s] = NaN;
+        out[slot] = NaN;
+        if (twin !== -1) out[twin] = NaN;
+        this.reportUnreadable(text, slot, index, line, problems);
         continue;
       }
-      const scaled = parsed.value * this.factor[slot];
-      if (!Number.isFinite(scaled)) {
-        problems.add(this.problem("not-finite", line, index, `"${raw.trim()}" is too large once converted to canonical units`));
-        ok = false;
-        for (const s of slots) out[s] = NaN;
-        continue;
+      const f = factor[slot];
+      let canonical: number;
+      let canonicalText: string;
+      if (f === 1 && text.length <= CANONICAL_DIGITS) {
+        // At most 12 characters hold at most 12 significant digits: the value is already
+        // canonical, and toPrecision (the costliest step per field) is skipped. -0 → 0.
+        canonical = value === 0 ? 0 : value;
+        canonicalText = canonicalTextOfShortDecimal(text, value);
+      } else {
+        const scaled = value * f;
+        if (scaled === 0) {
+          canonical = 0;
+          canonicalText = "0";
+        } else if (scaled - scaled !== 0) {
+          ok = false;
+          out[slot] = NaN;
+          if (twin !== -1) out[twin] = NaN;
+          problems.add(this.problem("not-finite", line, index, `"${text}" is too large once converted to canonical units`));
+          continue;
+        } else {
+          // canonicalNumber and formatCanonicalNumber in one toPrecision call.
+          const p = scaled.toPrecision(CANONICAL_DIGITS);
+          canonical = Number(p);
+          canonicalText = canonicalTextFromPrecision(p);
+        }
       }
-      const value = canonicalNumber(scaled);
-      for (const s of slots) {
-        out[s] = value;
-        this.raw[s] = raw.trim();
+      out[slot] = canonical;
+      raw[slot] = text;
+      texts[slot] = canonicalText;
+      if (twin !== -1) {
+        out[twin] = canonical;
+        raw[twin] = text;
+        texts[twin] = canonicalText;
       }
     }
     for (let s = 0; s < 8; s++) if (this.fieldIndex[s] === -1) out[s] = NaN;
     if (!ok) return false;
 
-    for (const { field, index, slots } of this.entries) {
-      const slot = slots[0];
-      if (this.role[slot] !== "error" || !(out[slot] < 0)) continue;
+    for (let e = 0; e < entryIndex.length; e++) {
+      const slot = entrySlot[e];
+      if (slot < SLOT.statMinus || !(out[slot] < 0)) continue;
+      const { field, index } = this.entries[e];
       const text = this.raw[slot];
       const side = field.endsWith(".minus") ? "minus " : field.endsWith(".plus") ? "plus " : "";
       problems.add(
@@ -197,8 +230,8 @@ export class RowValidator {
       ok = false;
     }
 
-    for (const s of [SLOT.x, SLOT.xLow, SLOT.xHigh]) {
-      if (this.fieldIndex[s] === -1) continue;
+    for (let s = SLOT.x; s <= SLOT.xHigh; s++) {
+      if (this.fieldIndex[s] === -1 || isInXDomain(this.xKind, out[s])) continue;
       const why = xDomainViolation(this.xKind, out[s], this.raw[s] + this.scales.xFileUnit);
       if (why !== null) {
         problems.add(this.problem("out-of-domain", line, this.fieldIndex[s], s === SLOT.x ? why : `bin edge: ${why}`));
@@ -231,6 +264,26 @@ export class RowValidator {
       }
     }
     return ok;
+  }
+
+  private reportUnreadable(text: string, slot: number, index: number, line: number, problems: ProblemCollector): void {
+    const parsed = parseNumberField(text) as Extract<NumberFieldResult, { ok: false }>;
+    const reason =
+      parsed.code === "empty-value" && this.role[slot] === "error"
+        ? `is empty; write 0 if this point has no ${this.label[slot]} uncertainty`
+        : parsed.reason;
+    problems.add(this.problem(parsed.code, line, index, parsed.code === "empty-value" ? `the field ${reason}` : reason));
+  }
+
+  /**
+   * The normal-form line of the row last validated successfully: the same text as
+   * `normalFormRow(out, slots)`, built from texts made while reading the fields.
+   */
+  normalFormLine(): string {
+    const slots = this.slots;
+    let line = this.text[slots[0]];
+    for (let i = 1; i < slots.length; i++) line += "," + this.text[slots[i]];
+    return line + "\n";
   }
 
   /** Header name and 1-based column of the field mapped to a slot, for reports made later. */

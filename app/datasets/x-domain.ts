@@ -30,3 +30,20 @@ export function xDomainViolation(kind: XKind, value: number, shown: string): str
       return value > 0 ? null : `the beam kinetic energy ${shown} must be positive`;
   }
 }
+
+/** `xDomainViolation(kind, value, …) === null`, without building a message per row. */
+export function isInXDomain(kind: XKind, value: number): boolean {
+  switch (kind) {
+    case "theta_lab_deg":
+    case "theta_cm_deg":
+      return value >= 0 && value <= 180;
+    case "cos_theta":
+      return value >= -1 && value <= 1;
+    case "t":
+      return value <= 0;
+    case "sqrt_s":
+    case "beam_energy":
+    case "beam_kinetic":
+      return value > 0;
+  }
+}
