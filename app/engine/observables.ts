@@ -41,7 +41,7 @@ export function angularObservable(
 }
 
 /**
- * σ with the reference particle's cos θ (in `frame`) inside [cosLo, cosHi], GeV²⁻¹:
+ * σ with the reference particle's cos θ (in `frame`) inside [cosLo, cosHi], GeV⁻²:
  * $\sigma = f\,2\pi\int_{c^*_{lo}}^{c^*_{hi}} \frac{d\sigma}{d\Omega^*}\,d\cos\theta^*$, the range mapped to
  * the CM frame, with f = ½ for identical final particles (so that the full range gives the total
  * cross section; for a CM-symmetric acceptance it is the cross section of events in it).
