@@ -20,6 +20,8 @@ export default defineConfig({
           name: "integration",
           include: ["tests/integration/**/*.test.ts"],
           environment: "node",
+          // The files share the running app and its storage folder: one at a time.
+          fileParallelism: false,
           setupFiles: ["tests/setup/fail-on-console-error.ts"],
           testTimeout: 30_000,
           hookTimeout: 60_000,

@@ -58,6 +58,7 @@ pids+=($!)
 node_modules/.bin/tsx scripts/prepare-storage.ts
 PORT="$APP_PORT" DATABASE_URL="$(database_url steradian_test_app)" SMTP_URL="smtp://127.0.0.1:$SMTP_PORT" \
   MAIL_CATCHER_URL="http://127.0.0.1:$MAIL_HTTP_PORT" SIGN_IN_MAX_FAILURES_PER_ADDRESS=1000 \
+  UPLOAD_MAX_BYTES="${TEST_UPLOAD_MAX_BYTES:-2097152}" UPLOAD_MAX_ROWS="${TEST_UPLOAD_MAX_ROWS:-20000}" \
   node scripts/serve.js > "$ROOT/.data/test-server.log" 2>&1 &
 pids+=($!)
 for _ in $(seq 1 100); do
@@ -71,6 +72,8 @@ export TEST_APP_DATABASE_URL="$(database_url steradian_test_app)"
 export TEST_TEMPLATE_DATABASE_URL="$(database_url steradian_test_template)"
 export TEST_MAIL_URL="http://127.0.0.1:$MAIL_HTTP_PORT"
 export TEST_SMTP_PORT="$SMTP_PORT"
+export TEST_STORAGE_DIR="$STORAGE_DIR"
+export TEST_UPLOAD_MAX_BYTES="${TEST_UPLOAD_MAX_BYTES:-2097152}" TEST_UPLOAD_MAX_ROWS="${TEST_UPLOAD_MAX_ROWS:-20000}"
 
 set +e
 npx vitest run --reporter=default --reporter=json --outputFile.json="$ROOT/.data/test-results.json" "$@"

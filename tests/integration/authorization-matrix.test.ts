@@ -5,6 +5,7 @@ import { Client } from "../support/http";
 import { connect } from "../support/db";
 import { testEnv } from "../support/env";
 import { TEST_PASSWORD, createAccount, createManuscriptWith } from "../support/accounts";
+import { angularCsv, createDatasetViaApi } from "../support/datasets";
 
 type Who = "anonymous" | "outsider" | "admin" | "observer" | "contributor" | "coauthor" | "corresponding";
 const EVERYONE: Who[] = ["anonymous", "outsider", "admin", "observer", "contributor", "coauthor", "corresponding"];
@@ -14,6 +15,11 @@ const SIGNED_IN: Who[] = ["outsider", "admin", ...MEMBERS];
 const db = connect(testEnv.appDatabaseUrl);
 const clients = {} as Record<Who, Client>;
 let manuscriptId = "";
+let datasetId = "";
+let unique = 0;
+const fresh = () => ++unique;
+const AUTHORS: Who[] = ["contributor", "corresponding"];
+const READERS_OF_RAW: Who[] = ["contributor", "coauthor", "corresponding"];
 
 beforeAll(async () => {
   const ids = {} as Record<Exclude<Who, "anonymous">, { id: string; email: string }>;
@@ -29,6 +35,9 @@ beforeAll(async () => {
     clients[w] = new Client();
     await clients[w].signIn(ids[w as Exclude<Who, "anonymous">].email, TEST_PASSWORD);
   }
+  datasetId = await createDatasetViaApi(clients.corresponding, manuscriptId, "matrix data");
+  const r1 = await clients.corresponding.upload(`/api/v1/manuscripts/${manuscriptId}/datasets/${datasetId}/revisions`, angularCsv());
+  expect(r1.status).toBe(201);
 });
 afterAll(() => db.destroy());
 
@@ -66,9 +75,41 @@ const cases: Case[] = [
     call: (c) => c.postJson("/api/v1/predictions", { process: "compton", frame: "lab", energy: { beam: 0.001 }, thetaDeg: [90], unit: "mb/sr" }),
     denied: () => 0, anonymous: 401,
   },
+  // Datasets (issue 4).
+  { name: "GET /manuscripts/:id/datasets", allowed: MEMBERS, call: (c) => c.get(`/manuscripts/${manuscriptId}/datasets`), denied: pageDenied, anonymous: 302 },
+  {
+    name: "POST /manuscripts/:id/datasets (create)", allowed: AUTHORS, okStatus: 302,
+    call: (c) => c.post(`/manuscripts/${manuscriptId}/datasets`, { name: `page dataset ${fresh()}`, xKind: "theta_cm_deg", xUnit: "", yKind: "dsigma_domega", yUnit: "nb/sr" }),
+    denied: pageDenied, anonymous: 302,
+  },
+  { name: "GET /manuscripts/:id/datasets/:d", allowed: MEMBERS, call: (c) => c.get(`/manuscripts/${manuscriptId}/datasets/${datasetId}`), denied: pageDenied, anonymous: 302 },
+  {
+    name: "POST /manuscripts/:id/datasets/:d (upload)", allowed: AUTHORS, okStatus: 302,
+    call: (c) => c.upload(`/manuscripts/${manuscriptId}/datasets/${datasetId}`, angularCsv([fresh(), 1, 1, 1, 1])),
+    denied: pageDenied, anonymous: 302,
+  },
+  { name: "GET /manuscripts/:id/datasets/:d/compare", allowed: MEMBERS, call: (c) => c.get(`/manuscripts/${manuscriptId}/datasets/${datasetId}/compare?from=1&to=1`), denied: pageDenied, anonymous: 302 },
+  { name: "GET /manuscripts/:id/datasets/:d/revisions/1", allowed: MEMBERS, call: (c) => c.get(`/manuscripts/${manuscriptId}/datasets/${datasetId}/revisions/1`), denied: pageDenied, anonymous: 302 },
+  { name: "GET /manuscripts/:id/datasets/:d/revisions/1/raw", allowed: READERS_OF_RAW, call: (c) => c.get(`/manuscripts/${manuscriptId}/datasets/${datasetId}/revisions/1/raw`), denied: pageDenied, anonymous: 302 },
+  { name: "GET /api/v1/manuscripts/:id/datasets", allowed: MEMBERS, call: (c) => c.get(`/api/v1/manuscripts/${manuscriptId}/datasets`), denied: apiDenied, anonymous: 401 },
+  {
+    name: "POST /api/v1/manuscripts/:id/datasets", allowed: AUTHORS, okStatus: 201,
+    call: (c) => c.postJson(`/api/v1/manuscripts/${manuscriptId}/datasets`, { name: `api dataset ${fresh()}`, quantity: { x: { kind: "cos_theta" }, y: { kind: "dsigma_dcos", unit: "nb" } } }),
+    denied: apiDenied, anonymous: 401,
+  },
+  { name: "GET /api/v1/manuscripts/:id/datasets/:d", allowed: MEMBERS, call: (c) => c.get(`/api/v1/manuscripts/${manuscriptId}/datasets/${datasetId}`), denied: apiDenied, anonymous: 401 },
+  { name: "GET /api/v1/…/datasets/:d/revisions", allowed: MEMBERS, call: (c) => c.get(`/api/v1/manuscripts/${manuscriptId}/datasets/${datasetId}/revisions`), denied: apiDenied, anonymous: 401 },
+  {
+    name: "POST /api/v1/…/datasets/:d/revisions", allowed: AUTHORS, okStatus: 201,
+    call: (c) => c.upload(`/api/v1/manuscripts/${manuscriptId}/datasets/${datasetId}/revisions`, angularCsv([fresh(), 2, 2, 2, 2])),
+    denied: apiDenied, anonymous: 401,
+  },
+  { name: "GET /api/v1/…/revisions/1", allowed: MEMBERS, call: (c) => c.get(`/api/v1/manuscripts/${manuscriptId}/datasets/${datasetId}/revisions/1`), denied: apiDenied, anonymous: 401 },
+  { name: "GET /api/v1/…/revisions/1/rows", allowed: MEMBERS, call: (c) => c.get(`/api/v1/manuscripts/${manuscriptId}/datasets/${datasetId}/revisions/1/rows`), denied: apiDenied, anonymous: 401 },
+  { name: "GET /api/v1/…/revisions/1/raw", allowed: READERS_OF_RAW, call: (c) => c.get(`/api/v1/manuscripts/${manuscriptId}/datasets/${datasetId}/revisions/1/raw`), denied: apiDenied, anonymous: 401 },
 ];
 
-describe("authorisation matrix (foundation routes)", () => {
+describe("authorisation matrix (foundation and dataset routes)", () => {
   for (const k of cases) {
     it(`${k.name}: allowed exactly for ${k.allowed.join(", ")}`, async () => {
       const got: Record<string, number> = {};

@@ -10,4 +10,7 @@ export const testEnv = {
   get appDatabaseUrl() { return need("TEST_APP_DATABASE_URL"); },
   get templateDatabaseUrl() { return need("TEST_TEMPLATE_DATABASE_URL"); },
   get mailUrl() { return need("TEST_MAIL_URL"); },
+  get storageDir() { return need("TEST_STORAGE_DIR"); },
+  get maxBytes() { return Number(need("TEST_UPLOAD_MAX_BYTES")); },
+  get maxRows() { return Number(need("TEST_UPLOAD_MAX_ROWS")); },
 };

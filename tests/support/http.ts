@@ -38,6 +38,14 @@ export class Client {
     return this.request(path, { method: "POST", headers: { "content-type": "application/json", ...headers }, body: JSON.stringify(body) });
   }
 
+  /** A multipart upload of one CSV file, as a browser or a script sends it. */
+  upload(path: string, csv: string | Uint8Array, fields: Record<string, string> = {}, fileName = "data.csv", headers: Record<string, string> = {}) {
+    const form = new FormData();
+    for (const [k, v] of Object.entries(fields)) form.set(k, v);
+    form.set("file", new Blob([csv as BlobPart], { type: "text/csv" }), fileName);
+    return this.request(path, { method: "POST", headers, body: form });
+  }
+
   async signIn(email: string, password: string): Promise<Response> {
     const res = await this.post("/sign-in", { email, password });
     if (res.status !== 302) throw new Error(`sign-in as ${email} answered ${res.status}: ${await res.text()}`);
