@@ -70,3 +70,13 @@ describe("guessMapping", () => {
     expect(g.notGuessed).toEqual(["x", "bin", "y", "stat", "syst"]);
   });
 });
+
+describe("guessMapping with frames and units in brackets", () => {
+  it("keeps a frame written in brackets and drops a unit", () => {
+    expect(guessMapping(["θ (CM)", "y"]).xKind).toBe("theta_cm_deg");
+    expect(guessMapping(["theta [lab]", "y"]).xKind).toBe("theta_lab_deg");
+    expect(guessMapping(["theta (c.m.)", "y"]).xKind).toBe("theta_cm_deg");
+    expect(guessMapping(["theta (deg)", "y"]).xKind).toBeNull();
+    expect(guessMapping(["theta (deg)", "y"]).mapping.x).toBe("theta (deg)");
+  });
+});

@@ -27,12 +27,14 @@ type Role =
   | "systPlus";
 
 /**
- * Reduces a header to lower-case words joined by "_": units in brackets are dropped, a
- * trailing "+" or "-" becomes "plus" or "minus", and a greek θ is spelled out.
+ * Reduces a header to lower-case words joined by "_": units in brackets are dropped (but a
+ * frame in brackets, "θ (CM)", is kept), a trailing "+" or "-" becomes "plus" or "minus", and
+ * a greek θ is spelled out.
  */
 function normalise(header: string): string {
   return header
     .toLowerCase()
+    .replace(/[([]\s*(c\.?\s*m\.?|cms|lab)\s*[)\]]/g, (_, frame: string) => ` ${frame.replace(/[.\s]/g, "")} `)
     .replace(/\([^)]*\)|\[[^\]]*\]/g, " ")
     .replace(/θ/g, "theta")
     .replace(/σ/g, "sigma")
