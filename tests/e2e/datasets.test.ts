@@ -1,0 +1,75 @@
+// The demo contributor brings measured data in: upload, map, a refused file, a corrected one,
+// and the comparison of r1 with r2 — in Debian's chromium.
+import { mkdtempSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import path from "node:path";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { launchBrowser } from "../support/browser";
+import { testEnv } from "../support/env";
+import { DEMO } from "../support/http";
+
+let browser: Awaited<ReturnType<typeof launchBrowser>>;
+const dir = mkdtempSync(path.join(tmpdir(), "steradian-e2e-csv-"));
+const file = (name: string, text: string) => {
+  const p = path.join(dir, name);
+  writeFileSync(p, text);
+  return p;
+};
+
+beforeAll(async () => {
+  browser = await launchBrowser();
+});
+afterAll(() => browser?.close());
+
+describe("datasets in the browser", () => {
+  it("upload, map columns, see a refused file, upload the corrected one, compare r1 with r2", async () => {
+    await browser.context.clearCookies();
+    const page = await browser.context.newPage();
+    const errors: string[] = [];
+    page.on("pageerror", (e) => errors.push(e.message));
+    await page.goto(`${testEnv.appUrl}/sign-in`);
+    await page.getByLabel("E-mail address").fill(DEMO.contributor);
+    await page.getByLabel("Password").fill(DEMO.password);
+    await page.getByRole("button", { name: "Sign in" }).click();
+    await page.waitForURL(/\/manuscripts$/);
+
+    await page.goto(`${testEnv.appUrl}/manuscripts/${DEMO.manuscriptId}/datasets`);
+    const name = `Angular distribution (browser ${Date.now()})`;
+    await page.getByLabel("Name", { exact: true }).fill(name);
+    await page.getByLabel("Unit of y").fill("ub/sr");
+    await page.getByRole("button", { name: "Create dataset" }).click();
+    await page.getByRole("heading", { name }).waitFor();
+
+    const good = "theta_cm,theta_lo,theta_hi,dsigma,stat\n30,25,35,1.5,0.1\n45,40,50,1.2,0.08\n60,55,65,0.95,0.07\n";
+    await page.getByLabel("CSV file").setInputFiles(file("first.csv", good));
+    await page.getByRole("button", { name: "Upload" }).click();
+    await page.getByRole("heading", { name: /Map the columns of “first.csv”/ }).waitFor();
+    // Guessed from the headers; checked, not trusted.
+    await expect(page.getByLabel("x (required)").inputValue()).resolves.toBe("theta_cm");
+    await expect(page.getByLabel("y (required)").inputValue()).resolves.toBe("dsigma");
+    await page.getByRole("button", { name: "Check and store as a revision" }).click();
+    await page.getByText("Stored as revision").waitFor();
+    await page.getByRole("link", { name: "r1", exact: true }).waitFor();
+
+    const broken = "theta_cm,theta_lo,theta_hi,dsigma,stat\n30,25,35,1.5,0.1\n45,40,50,\"1,2\",0.08\n60,65,55,0.95,0.07\n";
+    await page.getByLabel("CSV file").setInputFiles(file("second.csv", broken));
+    await page.getByRole("button", { name: "Upload" }).click();
+    await page.getByText(/The file was not stored: 2 problems/).waitFor();
+    const problems = await page.getByRole("region", { name: /The file was not stored/ }).textContent();
+    expect(problems).toContain("decimal point");
+    expect(problems).toMatch(/low edge|bin/);
+    await expect(page.getByRole("link", { name: "r2", exact: true }).count()).resolves.toBe(0);
+
+    const corrected = "theta_cm,theta_lo,theta_hi,dsigma,stat\n30,25,35,1.5,0.1\n45,40,50,1.2,0.08\n60,55,65,0.97,0.07\n75,70,80,0.81,0.06\n";
+    await page.getByLabel("CSV file").setInputFiles(file("second-fixed.csv", corrected));
+    await page.getByRole("button", { name: "Upload" }).click();
+    await page.getByRole("link", { name: "r2", exact: true }).waitFor();
+
+    await page.getByRole("button", { name: "Compare row by row" }).click();
+    await page.waitForURL(/compare\?from=1&to=2/);
+    await expect(page.getByTestId("diff-summary").textContent()).resolves.toBe("r1 → r2: 1 added, 0 removed, 1 changed, 2 unchanged");
+    await page.screenshot({ path: path.join(dir, "compare.png"), fullPage: true });
+    expect(errors).toEqual([]);
+    await page.close();
+  });
+});
