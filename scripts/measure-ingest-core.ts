@@ -36,12 +36,12 @@ async function writeSyntheticCsv(file: string, rows: number): Promise<void> {
     const y = (1.2 / (1 + x * x * 1e-3)) * (1 + 0.01 * (random() - 0.5));
     buffer += `${+lo.toPrecision(7)},${+hi.toPrecision(7)},${+x.toPrecision(7)},${y.toPrecision(6)},${(y * 0.03).toPrecision(3)},${(y * 0.02).toPrecision(3)},${(y * 0.025).toPrecision(3)}\n`;
     if (buffer.length > 1 << 16) {
-      if (!out.write(buffer)) await new Promise((resolve) => out.once("drain", resolve));
+      if (!out.write(buffer)) await new Promise<void>((resolve) => out.once("drain", () => resolve()));
       buffer = "";
     }
   }
   out.end(buffer);
-  await new Promise((resolve, reject) => out.on("finish", resolve).on("error", reject));
+  await new Promise<void>((resolve, reject) => out.on("finish", () => resolve()).on("error", reject));
 }
 
 async function child(file: string): Promise<void> {
