@@ -66,7 +66,16 @@ if (isMain) {
   const url = process.env.DATABASE_URL;
   if (!url) throw new Error("DATABASE_URL is not set");
   const db = new Kysely<Database>({ dialect: new PostgresDialect({ pool: new pg.Pool({ connectionString: url, max: 2 }) }) });
-  seedDemo(db)
-    .then(({ created }) => console.log(created ? `demo scenario: ${created} row(s) created` : "demo scenario: already present, nothing changed"))
-    .finally(() => db.destroy());
+  const run = async () => {
+    const { created } = await seedDemo(db);
+    // The datasets go through the app's own ingest path (storage, validation, COPY).
+    const { seedDemoDatasets } = await import("../app/.server/demo-datasets.server");
+    const { db: appDb } = await import("../app/.server/db.server");
+    const carla = await db.selectFrom("app_user").select("id").where("email", "=", "carla.corresponding@example.org").executeTakeFirstOrThrow();
+    const datasets = await seedDemoDatasets(appDb, DEMO_MANUSCRIPT_ID, carla.id);
+    await appDb.destroy();
+    const total = created + datasets;
+    console.log(total ? `demo scenario: ${created} account/manuscript row(s) and ${datasets} synthetic dataset(s) created` : "demo scenario: already present, nothing changed");
+  };
+  run().finally(() => db.destroy());
 }

@@ -34,7 +34,7 @@ npx tsx db/seed.ts
 if [ ! -f build/server/index.js ] || [ -n "$(find app -newer build/server/index.js -print -quit)" ] \
    || [ package-lock.json -nt build/server/index.js ]; then
   log "building the app"
-  npx react-router build >/dev/null
+  npx react-router build > .data/build.log 2>&1 || { cat .data/build.log; exit 1; }
 fi
 
 pids=()

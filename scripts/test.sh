@@ -42,16 +42,16 @@ done
 export MIGRATE_QUIET=1
 DATABASE_URL="$(database_url steradian_test_template)" npx tsx db/migrate.ts
 DATABASE_URL="$(database_url steradian_test_app)" npx tsx db/migrate.ts
-DATABASE_URL="$(database_url steradian_test_app)" npx tsx db/seed.ts >/dev/null
-
-log "building the app"
-npx react-router build >/dev/null 2>&1 || npx react-router build
 
 export NODE_ENV=production
 export SESSION_SECRET="test-secret-$(head -c 12 /dev/urandom | base64)"
 export APP_URL="http://127.0.0.1:$APP_PORT"
 export STORAGE_DIR="$ROOT/.data/test-storage"
 rm -rf "$STORAGE_DIR"; mkdir -p "$STORAGE_DIR"
+DATABASE_URL="$(database_url steradian_test_app)" npx tsx db/seed.ts >/dev/null
+
+log "building the app"
+npx react-router build >/dev/null 2>&1 || npx react-router build
 
 node_modules/.bin/tsx scripts/mail-catcher.ts --smtp "$SMTP_PORT" --http "$MAIL_HTTP_PORT" >/dev/null &
 pids+=($!)

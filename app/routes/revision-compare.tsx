@@ -7,6 +7,7 @@ import { db } from "~/.server/db.server";
 import { notFound } from "~/.server/guards.server";
 import { loadManuscriptPage } from "~/.server/manuscript-context.server";
 import { ManuscriptNav } from "~/components/manuscript-nav";
+import { displayScale } from "~/components/quantity-labels";
 import { diffRevisions, type RevisionRow } from "~/datasets/diff-revisions";
 
 const Query = z.object({ from: z.string().default(""), to: z.string().default("") });
@@ -19,22 +20,25 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const [a, b] = await Promise.all([findRevision(db, dataset.id, parseRevisionNumber("page", q.from)), findRevision(db, dataset.id, parseRevisionNumber("page", q.to))]);
   if (!a || !b) notFound("page", "One of the revisions");
   const diff = diffRevisions({ label: `r${a.number}`, rows: await revisionRows(db, a.id) }, { label: `r${b.number}`, rows: await revisionRows(db, b.id) }, { maxListed: LISTED });
-  return { ...page, dataset: { id: dataset.id, name: dataset.name }, from: a.number, to: b.number, diff };
+  return { ...page, dataset: { id: dataset.id, name: dataset.name, quantity: dataset.quantity }, from: a.number, to: b.number, diff };
 }
 
 const FIELD_LABELS: Record<string, string> = { x: "x", xLow: "bin low", xHigh: "bin high", y: "y", statMinus: "stat −", statPlus: "stat +", systMinus: "syst −", systPlus: "syst +" };
 const fmt = (v: number | null) => (v == null ? "—" : Number(v.toPrecision(8)).toString());
-const rowText = (r: RevisionRow) => `x = ${fmt(r.x)}${r.xLow != null ? ` [${fmt(r.xLow)}, ${fmt(r.xHigh)}]` : ""}, y = ${fmt(r.y)}`;
+type Scale = ReturnType<typeof displayScale>;
+const rowText = (r: RevisionRow, s: Scale) => `x = ${fmt(r.x)}${s.xUnit}${r.xLow != null ? ` [${fmt(r.xLow)}, ${fmt(r.xHigh)}]` : ""}, y = ${fmt(r.y * s.yFactor)} ${s.yUnit}`;
+const fieldValue = (field: string, v: number | null, s: Scale) => fmt(v == null || ["x", "xLow", "xHigh"].includes(field) ? v : v * s.yFactor);
 
 export default function Compare() {
   const { manuscript, role, can, dataset, from, to, diff } = useLoaderData<typeof loader>();
+  const scale = displayScale(dataset.quantity);
   return (
     <>
       <ManuscriptNav manuscript={manuscript} role={role} can={can} />
       <p className="text-sm"><Link className="text-ink-soft underline underline-offset-4" to={`/manuscripts/${manuscript.id}/datasets/${dataset.id}`}>{dataset.name}</Link> /</p>
       <h2 className="mt-1 text-2xl">Comparing <span className="font-mono">r{from}</span> with <span className="font-mono">r{to}</span></h2>
       <p className="mt-2 font-mono text-sm" data-testid="diff-summary">{diff.summary}</p>
-      <p className="text-xs text-ink-faint">Rows matched by {diff.keyedBy === "bin" ? "their bin" : "x"}; values in canonical units.</p>
+      <p className="text-xs text-ink-faint">Rows matched by {diff.keyedBy === "bin" ? "their bin" : "x"}; values in the dataset's units.</p>
       <section className="mt-6 space-y-6 text-sm">
         {diff.changedCount > 0 ? (
           <div>
@@ -42,13 +46,13 @@ export default function Compare() {
             <table className="mt-2 w-full"><thead className="border-b border-rule text-left text-ink-soft"><tr><th className="py-1 font-medium">row</th><th className="font-medium">field</th><th className="font-medium">r{from}</th><th className="font-medium">r{to}</th></tr></thead>
               <tbody className="num divide-y divide-rule font-mono text-xs">
                 {diff.changed.flatMap((c, i) => c.changes.map((ch, j) => (
-                  <tr key={`${i}-${j}`}><td className="py-1">{j === 0 ? rowText(c.old) : ""}</td><td>{FIELD_LABELS[ch.field]}</td><td>{fmt(ch.old)}</td><td>{fmt(ch.new)}</td></tr>
+                  <tr key={`${i}-${j}`}><td className="py-1">{j === 0 ? rowText(c.old, scale) : ""}</td><td>{FIELD_LABELS[ch.field]}</td><td>{fieldValue(ch.field, ch.old, scale)}</td><td>{fieldValue(ch.field, ch.new, scale)}</td></tr>
                 )))}
               </tbody></table>
           </div>
         ) : null}
-        {diff.addedCount > 0 ? <RowList title={`+ Added in r${to} (${diff.addedCount})`} rows={diff.added} /> : null}
-        {diff.removedCount > 0 ? <RowList title={`− Removed since r${from} (${diff.removedCount})`} rows={diff.removed} /> : null}
+        {diff.addedCount > 0 ? <RowList title={`+ Added in r${to} (${diff.addedCount})`} rows={diff.added} scale={scale} /> : null}
+        {diff.removedCount > 0 ? <RowList title={`− Removed since r${from} (${diff.removedCount})`} rows={diff.removed} scale={scale} /> : null}
         {diff.addedCount + diff.removedCount + diff.changedCount === 0 ? <p>The two revisions have the same rows.</p> : null}
         {Math.max(diff.addedCount, diff.removedCount, diff.changedCount) > LISTED ? <p className="text-ink-soft">Only the first {LISTED} rows of each kind are listed; the counts are exact.</p> : null}
       </section>
@@ -56,11 +60,11 @@ export default function Compare() {
   );
 }
 
-function RowList({ title, rows }: { title: string; rows: RevisionRow[] }) {
+function RowList({ title, rows, scale }: { title: string; rows: RevisionRow[]; scale: Scale }) {
   return (
     <div>
       <h3 className="text-lg">{title}</h3>
-      <ul className="num mt-2 divide-y divide-rule font-mono text-xs">{rows.map((r, i) => <li key={i} className="py-1">{rowText(r)}</li>)}</ul>
+      <ul className="num mt-2 divide-y divide-rule font-mono text-xs">{rows.map((r, i) => <li key={i} className="py-1">{rowText(r, scale)}</li>)}</ul>
     </div>
   );
 }

@@ -9,7 +9,7 @@ import { db } from "~/.server/db.server";
 import { loadManuscriptPage } from "~/.server/manuscript-context.server";
 import { Fingerprint } from "~/components/fingerprint";
 import { ManuscriptNav } from "~/components/manuscript-nav";
-import { describeQuantity } from "~/components/quantity-labels";
+import { describeQuantity, displayScale } from "~/components/quantity-labels";
 
 const PAGE_SIZE = 50;
 const Query = z.object({
@@ -37,12 +37,15 @@ export default function RevisionPage() {
   const [, setParams] = useSearchParams();
   const navigate = useNavigate();
   const has = (k: keyof Row) => rows.some((r) => r[k] != null);
+  const scale = displayScale(revision.quantity);
+  const fy = (v: number | null) => fmt(v == null ? null : v * scale.yFactor);
+  const xu = scale.xUnit ? ` [${scale.xUnit}]` : "";
   const columns: ColumnDef<Row>[] = [
     { id: "idx", accessorKey: "idx", header: "#", cell: (c) => (c.getValue() as number) + 1 },
-    { id: "x", accessorKey: "x", header: "x", cell: (c) => fmt(c.getValue() as number) },
+    { id: "x", accessorKey: "x", header: `x${xu}`, cell: (c) => fmt(c.getValue() as number) },
     ...(has("x_low") ? [{ id: "x_low", accessorKey: "x_low", header: "bin low", enableSorting: false, cell: (c) => fmt(c.getValue() as number) } as ColumnDef<Row>, { id: "x_high", accessorKey: "x_high", header: "bin high", enableSorting: false, cell: (c) => fmt(c.getValue() as number) } as ColumnDef<Row>] : []),
-    { id: "y", accessorKey: "y", header: "y", cell: (c) => fmt(c.getValue() as number) },
-    ...(["stat_minus", "stat_plus", "syst_minus", "syst_plus"] as const).filter(has).map((k) => ({ id: k, accessorKey: k, header: k.replace("_", " ").replace("minus", "−").replace("plus", "+"), enableSorting: false, cell: (c) => fmt(c.getValue() as number) }) as ColumnDef<Row>),
+    { id: "y", accessorKey: "y", header: `y [${scale.yUnit}]`, cell: (c) => fy(c.getValue() as number) },
+    ...(["stat_minus", "stat_plus", "syst_minus", "syst_plus"] as const).filter(has).map((k) => ({ id: k, accessorKey: k, header: k.replace("_", " ").replace("minus", "−").replace("plus", "+"), enableSorting: false, cell: (c) => fy(c.getValue() as number) }) as ColumnDef<Row>),
   ];
   const sorting: SortingState = [{ id: query.sort, desc: query.dir === "desc" }];
   const table = useReactTable({
@@ -66,7 +69,7 @@ export default function RevisionPage() {
         <dt className="text-ink-soft">content fingerprint</dt><dd><Fingerprint value={revision.content_hash} groups={4} /></dd>
         <dt className="text-ink-soft">original file</dt><dd>{revision.raw_filename} · <span className="num">{Number(revision.raw_bytes).toLocaleString("en")}</span> bytes · <Fingerprint value={revision.raw_sha256} /></dd>
       </dl>
-      <p className="mt-3 text-xs text-ink-faint">Values in canonical units: angles in degrees, t in GeV², energies in GeV, cross sections in GeV⁻² (per sr, per GeV² where they apply), 12 significant digits.</p>
+      <p className="mt-3 text-xs text-ink-faint">Shown in the dataset's units (8 significant digits). The revision's fingerprint is taken over its normal form: angles in degrees, t in GeV², energies in GeV, cross sections in GeV⁻² (per sr, per GeV² where they apply), 12 significant digits.</p>
       <table className="mt-4 w-full text-sm" aria-label={`Rows of r${revision.number}`}>
         <thead className="border-b border-rule text-left">
           {table.getHeaderGroups().map((g) => (

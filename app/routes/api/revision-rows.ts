@@ -6,6 +6,8 @@ import { ROW_SORTS } from "~/revision-row-sorts";
 import { db } from "~/.server/db.server";
 import { apiError } from "~/.server/guards.server";
 
+const NATURAL_Y = { dsigma_domega: "GeV^-2/sr", dsigma_dcos: "GeV^-2", dsigma_dt: "GeV^-4", sigma: "GeV^-2" } as const;
+
 const RowsQuery = z.object({
   page: z.coerce.number({ message: "page must be a whole number from 1" }).int().min(1, "page must be a whole number from 1").default(1),
   pageSize: z.coerce.number().int().min(1, "pageSize must be from 1 to 1000").max(1000, "pageSize must be from 1 to 1000").default(100),
@@ -19,8 +21,11 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   if (!q.success) return apiError(422, "invalid-query", q.error.issues[0].message, { field: q.error.issues[0].path.join(".") });
   const { page, pageSize, sort, dir } = q.data;
   const rows = await revisionRowsPage(db, revision.id, { offset: (page - 1) * pageSize, limit: pageSize, sort, dir });
+  const q2 = revision.quantity as { x: { kind: string }; y: { kind: keyof typeof NATURAL_Y } };
   return Response.json({
     revision: `r${revision.number}`,
+    // Rows are the revision's normal form, in canonical units.
+    units: { x: q2.x.kind.startsWith("theta") ? "deg" : q2.x.kind === "cos_theta" ? "1" : q2.x.kind === "t" ? "GeV^2" : "GeV", y: NATURAL_Y[q2.y.kind] },
     page, pageSize, totalRows: revision.row_count, totalPages: Math.ceil(revision.row_count / pageSize),
     rows: rows.map((r) => ({ row: r.idx + 1, x: r.x, xLow: r.x_low, xHigh: r.x_high, y: r.y, statMinus: r.stat_minus, statPlus: r.stat_plus, systMinus: r.syst_minus, systPlus: r.syst_plus })),
   });

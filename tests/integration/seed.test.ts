@@ -1,0 +1,41 @@
+// The demo scenario: seeded once by `npm test`'s set-up; a second run changes nothing.
+import { execFile } from "node:child_process";
+import { promisify } from "node:util";
+import { afterAll, describe, expect, it } from "vitest";
+import { connect } from "../support/db";
+import { testEnv } from "../support/env";
+import { DEMO } from "../support/http";
+
+const db = connect(testEnv.appDatabaseUrl);
+afterAll(() => db.destroy());
+
+async function counts() {
+  const n = async (t: "app_user" | "manuscript" | "membership" | "dataset" | "dataset_revision" | "dataset_row") =>
+    Number((await db.selectFrom(t).select((eb) => eb.fn.countAll<number>().as("n")).executeTakeFirstOrThrow()).n);
+  return { users: await n("app_user"), manuscripts: await n("manuscript"), memberships: await n("membership"), datasets: await n("dataset"), revisions: await n("dataset_revision"), rows: await n("dataset_row") };
+}
+
+describe("demo seed", () => {
+  it("is idempotent: a second run creates nothing", async () => {
+    const before = await counts();
+    const { stdout } = await promisify(execFile)("node_modules/.bin/tsx", ["db/seed.ts"], {
+      env: { ...process.env, DATABASE_URL: testEnv.appDatabaseUrl, STORAGE_DIR: testEnv.storageDir, NODE_ENV: "production" },
+    });
+    expect(stdout).toContain("already present, nothing changed");
+    expect(await counts()).toEqual(before);
+  });
+
+  it("marks the demo manuscript and its datasets as demo data, with synthetic data in every revision", async () => {
+    const m = await db.selectFrom("manuscript").select(["title", "is_demo"]).where("id", "=", DEMO.manuscriptId).executeTakeFirstOrThrow();
+    expect(m.is_demo).toBe(true);
+    expect(m.title).toMatch(/synthetic/);
+    const ds = await db.selectFrom("dataset").select(["name", "is_demo", "description"]).where("manuscript_id", "=", DEMO.manuscriptId).where("is_demo", "=", true).execute();
+    expect(ds.length).toBe(2);
+    for (const d of ds) {
+      expect(d.name).toMatch(/synthetic/);
+      expect(d.description).toMatch(/^SYNTHETIC/);
+    }
+    const users = await db.selectFrom("app_user").select(["email", "is_demo"]).where("is_demo", "=", true).execute();
+    expect(users.map((u) => u.email).sort()).toEqual([DEMO.admin, DEMO.contributor, DEMO.coauthor, DEMO.corresponding].sort());
+  });
+});
