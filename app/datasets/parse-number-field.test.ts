@@ -1,6 +1,6 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { parseNumberField, readPlainDecimal } from "./parse-number-field";
+import { parseNumberField, readPlainDecimal, readShiftedDecimal, shiftDecimalText } from "./parse-number-field";
 
 describe("parseNumberField", () => {
   it.each([
@@ -65,5 +65,31 @@ describe("readPlainDecimal", () => {
     for (const t of ["0x1A", "0X1a", "0o7", "0b1", "Infinity", "-Infinity", "", "1_000", "1e400", ".", "e1", "00.5", "0.5", "-.5e-3"]) {
       expect(readPlainDecimal(t), t).toBe(reference(t));
     }
+  });
+});
+
+describe("shiftDecimalText", () => {
+  it("moves the decimal exponent without arithmetic on doubles", () => {
+    expect(shiftDecimalText("1500", -9)).toBe("1500e-9");
+    expect(shiftDecimalText("1.5e0", -6)).toBe("1.5e-6");
+    expect(shiftDecimalText("2E+3", 3)).toBe("2e6");
+    expect(shiftDecimalText("-.5", 0)).toBe("-.5");
+    expect(Number(shiftDecimalText("1500", -9))).toBe(Number(shiftDecimalText("1.5", -6)));
+  });
+});
+
+describe("readShiftedDecimal", () => {
+  it("accepts exactly what readPlainDecimal accepts, shifted as shiftDecimalText shifts", () => {
+    const alphabet = fc.constantFrom(..."0123456789+-.xXoObB_ In∞".split(""));
+    fc.assert(
+      fc.property(fc.array(alphabet, { maxLength: 10 }).map((a) => a.join("").trim()), fc.integer({ min: -9, max: 27 }), (text, k) => {
+        const shifted = readShiftedDecimal(text, `e${k}`);
+        expect(Number.isNaN(shifted)).toBe(Number.isNaN(readPlainDecimal(text)));
+        if (!Number.isNaN(shifted)) expect(shifted).toBe(Number(shiftDecimalText(text, k)));
+      }),
+      { numRuns: 20000 },
+    );
+    expect(readShiftedDecimal("0x", "e3")).toBeNaN();
+    expect(readShiftedDecimal("0X1", "e27")).toBeNaN();
   });
 });

@@ -16,13 +16,27 @@ export function readPlainDecimal(text: string): number {
   // Number() accepts exactly the plain decimals of DECIMAL, plus "Infinity" (not finite),
   // "" (0) and unsigned 0x/0o/0b literals; excluding those three is cheaper than the regex,
   // which matters at a few million fields per upload.
-  if (text.length === 0) return NaN;
-  if (text.length > 1 && text.charCodeAt(0) === 48 /* "0" */) {
-    const c = text.charCodeAt(1) | 0x20;
-    if (c === 120 /* x */ || c === 111 /* o */ || c === 98 /* b */) return NaN;
-  }
+  if (text.length === 0 || hasRadixPrefix(text)) return NaN;
   const value = Number(text);
   return value - value === 0 ? value : NaN;
+}
+
+/**
+ * `Number(shiftDecimalText(text, k))` for a trimmed text without an exponent, given
+ * `exponent = "e" + k`, or NaN when the text is not a plain decimal (or the result is not
+ * finite): one Number() call both checks and reads the field. The radix prefix is refused
+ * first, or "0x" + "e3" would read as the hexadecimal 0xE3.
+ */
+export function readShiftedDecimal(text: string, exponent: string): number {
+  if (hasRadixPrefix(text)) return NaN;
+  const value = Number(text + exponent);
+  return value - value === 0 ? value : NaN;
+}
+
+function hasRadixPrefix(text: string): boolean {
+  if (text.length < 2 || text.charCodeAt(0) !== 48 /* "0" */) return false;
+  const c = text.charCodeAt(1) | 0x20;
+  return c === 120 /* x */ || c === 111 /* o */ || c === 98 /* b */;
 }
 
 /**
@@ -65,4 +79,17 @@ export function parseNumberField(raw: string): NumberFieldResult {
 
 function truncate(text: string): string {
   return text.length > 40 ? `${text.slice(0, 40)}…` : text;
+}
+
+/**
+ * The decimal text `text · 10^power`, for a text that `readPlainDecimal` accepted: the
+ * exponent is shifted, so Number() of the result is the correctly rounded value of the exact
+ * decimal, with no rounding of a multiplication in between.
+ */
+export function shiftDecimalText(text: string, power: number): string {
+  if (power === 0) return text;
+  let e = text.indexOf("e");
+  if (e === -1) e = text.indexOf("E");
+  if (e === -1) return `${text}e${power}`;
+  return `${text.slice(0, e)}e${Number(text.slice(e + 1)) + power}`;
 }

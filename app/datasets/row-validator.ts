@@ -2,7 +2,7 @@ import { CANONICAL_DIGITS, canonicalTextFromPrecision, canonicalTextOfShortDecim
 import { mappedColumnEntries, type ColumnMapping } from "./column-mapping";
 import type { DatasetProblem } from "./dataset-problem";
 import { normalFormSlots, SLOT } from "./normal-form";
-import { parseNumberField, readPlainDecimal, type NumberFieldResult } from "./parse-number-field";
+import { parseNumberField, readPlainDecimal, readShiftedDecimal, shiftDecimalText, type NumberFieldResult } from "./parse-number-field";
 import type { ProblemCollector } from "./problem-collector";
 import { X_LABELS, type QuantityDescription, type XKind } from "./quantity";
 import { resolveQuantityScales, type QuantityScales } from "./quantity-scales";
@@ -102,6 +102,8 @@ export class RowValidator {
   readonly hasBins: boolean;
   private readonly xKind: XKind;
   private readonly fieldIndex: Int32Array;
+  private readonly shifts: Int32Array;
+  private readonly shiftSuffix: string[];
   private readonly factor: Float64Array;
   private readonly role: Role[];
   private readonly label: string[];
@@ -125,6 +127,8 @@ export class RowValidator {
     this.hasBins = mapping.xLow !== undefined;
     this.xKind = quantity.x.kind;
     this.fieldIndex = new Int32Array(8).fill(-1);
+    this.shifts = new Int32Array(8);
+    this.shiftSuffix = new Array<string>(8).fill("");
     this.factor = new Float64Array(8);
     this.role = new Array<Role>(8);
     this.label = new Array<string>(8);
@@ -138,7 +142,9 @@ export class RowValidator {
       for (const slot of slots) {
         this.fieldIndex[slot] = index;
         const isX = slot <= SLOT.xHigh;
-        this.factor[slot] = isX ? this.scales.xFactor : this.scales.yFactor;
+        this.shifts[slot] = isX ? this.scales.xShift : this.scales.yShift;
+        this.shiftSuffix[slot] = `e${this.shifts[slot]}`;
+        this.factor[slot] = isX ? 1 : this.scales.yFactor;
         this.role[slot] = isX ? "x" : slot === SLOT.y ? "y" : "error";
         this.label[slot] = ERROR_LABEL[field] ?? "";
       }
@@ -161,30 +167,44 @@ export class RowValidator {
       return false;
     }
     let ok = true;
-    const { entryIndex, entrySlot, entryTwin, factor, raw, text: texts } = this;
+    const { entryIndex, entrySlot, entryTwin, shifts, shiftSuffix, factor, raw, text: texts } = this;
     for (let e = 0; e < entryIndex.length; e++) {
       const index = entryIndex[e];
       const slot = entrySlot[e];
       const twin = entryTwin[e];
       const text = fields[index].trim();
-      const value = readPlainDecimal(text);
-      if (value !== value) {
+      const shift = shifts[slot];
+      const f = factor[slot];
+      // The value in canonical units before rounding: the decimal shifted by `shift`. Most
+      // fields have no exponent; for them one Number() call both checks and reads the field.
+      let value: number;
+      let shifted: number;
+      if (shift === 0) {
+        value = shifted = readPlainDecimal(text);
+      } else if (text.indexOf("e") === -1 && text.indexOf("E") === -1) {
+        value = shifted = readShiftedDecimal(text, shiftSuffix[slot]);
+      } else {
+        value = readPlainDecimal(text);
+        shifted = value !== value ? NaN : Number(shiftDecimalText(text, shift));
+      }
+      if (!(shifted - shifted === 0)) {
         ok = false;
         out[slot] = NaN;
         if (twin !== -1) out[twin] = NaN;
-        this.reportUnreadable(text, slot, index, line, problems);
+        if (Number.isNaN(readPlainDecimal(text))) this.reportUnreadable(text, slot, index, line, problems);
+        else problems.add(this.problem("not-finite", line, index, `"${text}" is too large once converted to canonical units`));
         continue;
       }
-      const f = factor[slot];
       let canonical: number;
       let canonicalText: string;
       if (f === 1 && text.length <= CANONICAL_DIGITS) {
-        // At most 12 characters hold at most 12 significant digits: the value is already
-        // canonical, and toPrecision (the costliest step per field) is skipped. -0 → 0.
-        canonical = value === 0 ? 0 : value;
-        canonicalText = canonicalTextOfShortDecimal(text, value);
+        // At most 12 characters hold at most 12 significant digits, and a shift of the decimal
+        // exponent keeps them: the value is already canonical, and toPrecision (the costliest
+        // step per field) is skipped. -0 → 0.
+        canonical = shifted === 0 ? 0 : shifted;
+        canonicalText = shift === 0 ? canonicalTextOfShortDecimal(text, value) : String(canonical);
       } else {
-        const scaled = value * f;
+        const scaled = shifted * f;
         if (scaled === 0) {
           canonical = 0;
           canonicalText = "0";

@@ -161,6 +161,12 @@ describe("ingestCsv: problems, each on its line and column", () => {
     expect(p.message).toContain('"abc" is not a number');
   });
 
+  it("not a number in a unit that shifts the exponent up (\"0x\" must not read as hexadecimal)", async () => {
+    const cm2: QuantityDescription = { x: { kind: "theta_cm_deg" }, y: { kind: "dsigma_domega", unit: "cm^2/sr" } };
+    const p = onlyProblem(await ingestText("theta,y\n30,1e-33\n45,0x\n", { x: "theta", y: "y" }, cm2));
+    expect(p).toMatchObject({ code: "not-a-number", row: 3, column: 2 });
+  });
+
   it("a decimal comma in a semicolon file, saying a decimal point is expected", async () => {
     const p = onlyProblem(await ingestText("theta;y;stat\n30;1.5;0.1\n45;1,2;0.1\n"));
     expect(p).toMatchObject({ code: "decimal-comma", row: 3, column: 2, header: "y" });
@@ -333,5 +339,33 @@ describe("ingestCsv: problems, each on its line and column", () => {
       limit: { kind: "rows", max: 10 },
     });
     expect((await ingestText(lines.slice(0, 11).join("\n"), SIMPLE, THETA_NB, { maxRows: 10 })).ok).toBe(true);
+  });
+});
+
+describe("ingestCsv: the same numbers in another unit of the same family", () => {
+  it("give the same hash for thousands of rows, in nb/sr and pb/sr, in GeV and MeV", async () => {
+    // Seeded invented values with 6 significant digits; the pb/sr file writes the same digits
+    // with the decimal exponent raised by 3, the MeV file likewise for x.
+    let seed = 7;
+    const random = () => (seed = (seed * 16807) % 2147483647) / 2147483647;
+    const nb = ["E,y,stat"];
+    const pb = ["E,y,stat"];
+    for (let i = 0; i < 5000; i++) {
+      const e = (1 + i) * 0.001 + Math.floor(random() * 1000) * 1e-7;
+      const m = Math.floor(100000 + random() * 900000);
+      const s = Math.floor(100 + random() * 900);
+      const p = -Math.floor(random() * 8);
+      nb.push(`${+e.toFixed(7)},${m}e${p},${s}e${p - 3}`);
+      pb.push(`${+e.toFixed(7)}e3,${m}e${p + 3},${s}e${p}`);
+    }
+    const mapping: ColumnMapping = { x: "E", y: "y", stat: { kind: "symmetric", column: "stat" } };
+    const inNb = await ingestText(nb.join("\n"), mapping, { x: { kind: "sqrt_s", unit: "GeV" }, y: { kind: "sigma", unit: "nb" } }, { maxRows: 10_000 });
+    const inPb = await ingestText(pb.join("\n"), mapping, { x: { kind: "sqrt_s", unit: "MeV" }, y: { kind: "sigma", unit: "pb" } }, { maxRows: 10_000 });
+    if (inNb.ok && inPb.ok) {
+      const differing = inNb.columns.y.filter((v, i) => v !== inPb.columns.y[i]).length;
+      const differingX = inNb.columns.x.filter((v, i) => v !== inPb.columns.x[i]).length;
+      expect({ differing, differingX }).toEqual({ differing: 0, differingX: 0 });
+    }
+    expect(hashOf(inPb)).toBe(hashOf(inNb));
   });
 });
