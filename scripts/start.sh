@@ -40,7 +40,10 @@ fi
 pids=()
 cleanup() {
   trap - INT TERM EXIT
-  log "shutting down"
+  # The terminal (or a pipe such as tee) may already be gone: never let a failed write stop
+  # the shutdown half-way.
+  trap '' PIPE
+  log "shutting down" 2>/dev/null || true
   for p in "${pids[@]}"; do kill -TERM "$p" 2>/dev/null || true; done
   for p in "${pids[@]}"; do wait "$p" 2>/dev/null || true; done
   stop_postgres

@@ -83,11 +83,15 @@ pg_running() {
 clear_stale_pid() {
   local pidfile="$PG_DIR/data/postmaster.pid"
   [ -f "$pidfile" ] || return 0
-  local pid; pid=$(head -n1 "$pidfile")
-  # After a crash the PID may be gone, or reused by an unrelated process.
-  if [ -z "$pid" ] || [ ! -d "/proc/$pid" ] || ! grep -qx postgres "/proc/$pid/comm" 2>/dev/null; then
-    log "removing a stale postmaster.pid (PID $pid is not a running postgres)"
-    rm -f "$pidfile"
+  local pid state; pid=$(head -n1 "$pidfile")
+  state=$( [ -n "$pid" ] && awk '{print $3}' "/proc/$pid/stat" 2>/dev/null || true)
+  # After a crash the PID may be gone, a zombie, or reused by an unrelated process.
+  if [ -z "$pid" ] || [ -z "$state" ] || [ "$state" = Z ] || [ "$state" = X ] \
+     || ! tr '\0' ' ' < "/proc/$pid/cmdline" 2>/dev/null | grep -q -- "$PG_DIR/data"; then
+    log "removing a stale postmaster.pid (PID ${pid:-?} is not this cluster's running server)"
+    rm -f "$pidfile" "$PG_DIR/socket/.s.PGSQL.$PG_PORT" "$PG_DIR/socket/.s.PGSQL.$PG_PORT.lock"
+    # Backends of a killed server leave on their own; give them a moment to release memory.
+    for _ in $(seq 1 20); do pgrep -f "postgres: .*" -u "$(pg_system_user)" >/dev/null 2>&1 || break; sleep 0.25; done
   fi
 }
 
@@ -106,7 +110,7 @@ start_postgres() {
 
 stop_postgres() {
   if pg_running; then
-    log "stopping PostgreSQL"
+    log "stopping PostgreSQL" 2>/dev/null || true
     run_pg "$PG_BIN/pg_ctl" -D "$PG_DIR/data" -m fast -w stop >/dev/null || true
   fi
 }
