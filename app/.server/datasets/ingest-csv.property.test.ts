@@ -130,6 +130,9 @@ function applyMutations(base: string, mutations: Mutation[]): Uint8Array {
   return bytes;
 }
 
+// Hundreds of files per property: generous time, so a loaded machine does not fail them.
+const PROPERTY_TIMEOUT_MS = 60_000;
+
 describe("ingestCsv on arbitrary input", () => {
   it("accepts the unmutated file (the mutations start from a good one)", async () => {
     const r = await ingestBytes(Buffer.from(GOOD));
@@ -144,7 +147,7 @@ describe("ingestCsv on arbitrary input", () => {
       }),
       { numRuns: 150 },
     );
-  });
+  }, PROPERTY_TIMEOUT_MS);
 
   it("random text made of CSV-ish pieces behaves the same", async () => {
     const piece = fc.oneof(fc.constantFrom(...INTERESTING, "theta", "lo", "hi", "y", "stat", "sm", "sp"), fc.string({ maxLength: 4 }));
@@ -154,7 +157,7 @@ describe("ingestCsv on arbitrary input", () => {
       }),
       { numRuns: 150 },
     );
-  });
+  }, PROPERTY_TIMEOUT_MS);
 
   it("mutations of a good file give a consistent revision or problems, never a partial result", async () => {
     let accepted = 0;
@@ -171,5 +174,5 @@ describe("ingestCsv on arbitrary input", () => {
     // Both outcomes must actually occur, or the property says little.
     expect(accepted).toBeGreaterThan(0);
     expect(refused).toBeGreaterThan(0);
-  });
+  }, PROPERTY_TIMEOUT_MS);
 });
