@@ -1,195 +1,332 @@
-import { useEffect, useMemo, useRef, useState } from "react";
+import { useId, useMemo, useState } from "react";
 import { useLoaderData } from "react-router";
 import type { Route } from "./+types/predictions";
 import { requireUser } from "~/.server/guards.server";
-import { PROCESSES } from "~/engine";
-import { PredictionChart } from "~/components/prediction-chart";
-import { Notice } from "~/components/ui/notice";
+import { PHYSICAL_CONSTANTS, PROCESSES, type Observable, type PredictionResponse } from "~/engine";
+import { PredictionChart, type ChartRow } from "~/components/prediction-chart";
 import { Fingerprint } from "~/components/fingerprint";
+import { Notice } from "~/components/ui/notice";
+import { Field, SelectField } from "~/components/ui/field";
+import { buildPredictionRequest, RANGE_FIELDS } from "~/components/predictions/build-prediction-request";
+import { ConventionsList } from "~/components/predictions/conventions-list";
+import { inputForError, type ErrorSlot } from "~/components/predictions/input-for-error";
+import { predictionCsv } from "~/components/predictions/prediction-csv";
+import {
+  initialFormState, withObservable, withProcess, withVariable,
+  type CurveVariable, type PredictionFormState,
+} from "~/components/predictions/prediction-form-state";
+import { unitChoices, unitLabel } from "~/components/predictions/unit-choices";
+import { useLivePrediction } from "~/components/predictions/use-live-prediction";
 
 export async function loader({ request }: Route.LoaderArgs) {
   await requireUser(request);
-  return { processes: PROCESSES };
+  return { processes: PROCESSES, defaultAlpha: PHYSICAL_CONSTANTS.alpha };
 }
 
-type Processes = Awaited<ReturnType<typeof loader>>["processes"];
-type Info = Processes[number];
-
-type ApiOk = { engineVersion: string; process: string; frame: string; unit: string; sqrtS: number; parametersHash: string; values: number[] };
-type ApiErr = { error: { code: string; message: string; field?: string } };
-
-const UNITS = ["GeV^-2/sr", "cm^2/sr", "fm^2/sr", "mb/sr", "ub/sr", "nb/sr", "pb/sr", "fb/sr"] as const;
-
-interface FormState {
-  process: string;
-  frame: string;
-  energyKind: "kinetic" | "beam" | "sqrtS";
-  energy: string;
-  energyUnit: "GeV" | "MeV" | "keV";
-  mass: string;
-  finalMass: string;
-  alpha: string;
-  thetaFrom: string;
-  thetaTo: string;
-  points: string;
-  unit: string;
-}
-
-function initial(p: Info): FormState {
-  return {
-    process: p.id, frame: p.frames[0], energyKind: p.needsSqrtS ? "sqrtS" : "kinetic", energy: p.needsSqrtS ? "1" : "0.5", energyUnit: "GeV",
-    mass: "", finalMass: "", alpha: "", thetaFrom: "5", thetaTo: "175", points: "69", unit: "ub/sr",
-  };
-}
-
-/** The request body exactly as the API and the command line take it. */
-export function buildRequest(f: FormState): { body: Record<string, unknown>; thetas: number[] } {
-  const n = Math.max(2, Math.min(721, Math.round(Number(f.points) || 2)));
-  const a = Number(f.thetaFrom), b = Number(f.thetaTo);
-  const thetas = Array.from({ length: n }, (_, i) => Number((a + ((b - a) * i) / (n - 1)).toPrecision(12)));
-  const body: Record<string, unknown> = {
-    process: f.process, frame: f.frame,
-    energy: { [f.energyKind]: f.energy.trim() === "" ? NaN : Number(f.energy), unit: f.energyUnit },
-    thetaDeg: thetas, unit: f.unit,
-  };
-  if (f.mass.trim()) body.mass = Number(f.mass);
-  if (f.finalMass.trim()) body.finalMass = Number(f.finalMass);
-  if (f.alpha.trim()) body.alpha = Number(f.alpha);
-  return { body, thetas };
-}
+const OBSERVABLES: { value: Observable; label: string }[] = [
+  { value: "dsigma/dOmega", label: "dσ/dΩ" },
+  { value: "dsigma/dcos", label: "dσ/dcosθ" },
+  { value: "dsigma/dt", label: "dσ/dt" },
+  { value: "sigma", label: "σ, total or in an acceptance" },
+];
+const ENERGY_NAMES = { sqrtS: "√s", beam: "total beam energy", kinetic: "beam kinetic energy" } as const;
 
 export default function Predictions() {
-  const { processes } = useLoaderData<typeof loader>();
-  const [form, setForm] = useState<FormState>(() => initial(processes[0]));
-  const [result, setResult] = useState<{ ok: ApiOk; thetas: number[] } | null>(null);
-  const [error, setError] = useState<ApiErr["error"] | null>(null);
-  const [busy, setBusy] = useState(false);
-  const seq = useRef(0);
+  const { processes, defaultAlpha } = useLoaderData<typeof loader>();
+  const [form, setForm] = useState<PredictionFormState>(() => initialFormState(processes[0]));
   const info = processes.find((p) => p.id === form.process) ?? processes[0];
-  const { body, thetas } = useMemo(() => buildRequest(form), [form]);
+  const built = useMemo(() => buildPredictionRequest(form, info), [form, info]);
+  const { result, problem, busy } = useLivePrediction(built.body, built.problem);
+  const slot: ErrorSlot | null = problem ? (problem.field === undefined ? "general" : inputForError(problem.field, form)) : null;
+  const err = (s: ErrorSlot) => (slot === s ? problem!.message : undefined);
 
-  useEffect(() => {
-    // Debounced; a response older than the newest request is dropped, and its fetch aborted.
-    const mine = ++seq.current;
-    const ctrl = new AbortController();
-    const timer = setTimeout(async () => {
-      setBusy(true);
-      try {
-        const res = await fetch("/api/v1/predictions", { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify(body), signal: ctrl.signal });
-        const json = (await res.json()) as ApiOk | ApiErr;
-        if (mine !== seq.current) return;
-        if ("error" in json) { setError(json.error); } else { setError(null); setResult({ ok: json, thetas }); }
-      } catch (e) {
-        if ((e as Error).name !== "AbortError" && mine === seq.current) setError({ code: "network", message: "The server did not answer." });
-      } finally {
-        if (mine === seq.current) setBusy(false);
-      }
-    }, 250);
-    return () => { clearTimeout(timer); ctrl.abort(); };
-  }, [body, thetas]);
-
-  const set = (k: keyof FormState) => (e: React.ChangeEvent<HTMLInputElement | HTMLSelectElement>) => {
-    const v = e.target.value;
+  const set = <K extends keyof PredictionFormState>(k: K) => (e: React.ChangeEvent<HTMLInputElement | HTMLSelectElement>) => {
+    const v = (e.target.type === "checkbox" ? (e.target as HTMLInputElement).checked : e.target.value) as PredictionFormState[K];
     setForm((f) => {
-      if (k === "process") {
-        const p = processes.find((x) => x.id === v)!;
-        return { ...f, process: v, frame: p.frames.includes(f.frame as never) ? f.frame : p.frames[0], energyKind: p.needsSqrtS ? "sqrtS" : f.energyKind, mass: "", finalMass: "" };
-      }
+      if (k === "process") return withProcess(f, processes.find((p) => p.id === v)!);
+      if (k === "observable") return withObservable(f, v as Observable);
+      if (k === "variable") return withVariable(f, v as CurveVariable);
       return { ...f, [k]: v };
     });
   };
 
-  const csv = result ? toCsv(result.ok, result.thetas) : null;
-  const fieldError = (name: string) => (error?.field && (error.field === name || error.field.startsWith(`${name}.`) || error.field.startsWith(`${name}[`)) ? error.message : undefined);
+  const scan = form.variable === "energy";
+  const differential = form.observable !== "sigma";
+  const response = result?.response ?? null;
+  const csv = useMemo(() => (result ? predictionCsv(result.response, result.request) : null), [result]);
 
   return (
-    <div className="grid grid-cols-[20rem_1fr] gap-8 max-lg:grid-cols-1">
-      <form className="flex flex-col gap-3 text-sm" onSubmit={(e) => e.preventDefault()} aria-label="Prediction parameters">
-        <h1 className="text-3xl">Predictions</h1>
-        <p className="text-ink-soft">Tree-level (Born) cross sections from Steradian's engine. The curve follows your input as you type.</p>
-        <Select label="Process" value={form.process} onChange={set("process")}>
-          {processes.map((p) => <option key={p.id} value={p.id}>{p.reaction} — {p.theory}</option>)}
-        </Select>
-        <Select label="Frame" value={form.frame} onChange={set("frame")}>
-          {info.frames.map((fr) => <option key={fr} value={fr}>{fr === "cm" ? "CM frame" : "lab frame (target at rest)"}</option>)}
-        </Select>
-        <div className="grid grid-cols-[1fr_5rem] gap-2">
-          <Select label="Energy given as" value={form.energyKind} onChange={set("energyKind")}>
-            <option value="sqrtS">√s</option>
-            {info.needsSqrtS ? null : <><option value="kinetic">beam kinetic energy</option><option value="beam">total beam energy</option></>}
-          </Select>
-          <Select label="Unit" value={form.energyUnit} onChange={set("energyUnit")}>
-            <option>GeV</option><option>MeV</option><option>keV</option>
-          </Select>
+    <div className="grid grid-cols-[22rem_1fr] gap-8 max-lg:grid-cols-1">
+      <form className="flex flex-col gap-4 text-sm" onSubmit={(e) => e.preventDefault()} aria-label="Prediction parameters">
+        <div>
+          <h1 className="text-3xl">Predictions</h1>
+          <p className="mt-1 text-ink-soft">Tree-level cross sections from Steradian's engine. The curve follows your input as you type.</p>
         </div>
-        <Input label="Energy" value={form.energy} onChange={set("energy")} inputMode="decimal" error={fieldError("energy")} />
-        <Input label={`Mass, GeV — ${info.massMeaning}`} placeholder={String(info.defaultMass)} value={form.mass} onChange={set("mass")} inputMode="decimal" error={fieldError("mass")} />
-        {info.defaultFinalMass != null ? (
-          <Input label={`Final mass, GeV — ${info.finalMassMeaning}`} placeholder={String(info.defaultFinalMass)} value={form.finalMass} onChange={set("finalMass")} inputMode="decimal" error={fieldError("finalMass")} />
+
+        <Group title="Process">
+          <SelectField label="Process" name="process" value={form.process} onChange={set("process")} error={err("process")}>
+            {processes.map((p) => <option key={p.id} value={p.id}>{p.reaction} — {p.theory}</option>)}
+          </SelectField>
+          <SelectField label="Frame" name="frame" value={form.frame} onChange={set("frame")} error={err("frame")}>
+            {info.frames.map((fr) => <option key={fr} value={fr}>{fr === "cm" ? "CM frame" : `lab frame (${info.targetParticle} at rest)`}</option>)}
+          </SelectField>
+        </Group>
+
+        <Group title="Energy">
+          <div className="grid grid-cols-[1fr_5.5rem] gap-2">
+            <SelectField label="Energy given as" name="energyKind" value={form.energyKind} onChange={set("energyKind")}>
+              <option value="sqrtS">√s</option>
+              {info.needsSqrtS ? null : <><option value="kinetic">beam kinetic energy</option><option value="beam">total beam energy</option></>}
+            </SelectField>
+            <SelectField label="Energy unit" name="energyUnit" value={form.energyUnit} onChange={set("energyUnit")}>
+              <option>GeV</option><option>MeV</option><option>keV</option>
+            </SelectField>
+          </div>
+          {scan ? (
+            <p className="text-ink-soft">The energy is scanned: set its range under “Curve”.</p>
+          ) : (
+            <Field label="Energy" name="energy" value={form.energy} onChange={set("energy")} inputMode="decimal" error={err("energy")}
+              hint={info.needsSqrtS ? "γγ has no target at rest: √s only." : form.energyKind === "sqrtS" ? undefined : `${info.beamParticle} beam on ${info.targetParticle} at rest.`} />
+          )}
+        </Group>
+
+        <Group title="Masses and coupling">
+          <Field label={`Mass, GeV — ${info.massMeaning.replace(" (GeV)", "")}`} name="mass" placeholder={`default ${info.defaultMass} (PDG)`} value={form.mass} onChange={set("mass")} inputMode="decimal" error={err("mass")} />
+          {info.defaultFinalMass !== null ? (
+            <Field label={`Final mass, GeV — ${(info.finalMassMeaning ?? "").replace(" (GeV)", "")}`} name="finalMass" placeholder={`default ${info.defaultFinalMass} (PDG)`} value={form.finalMass} onChange={set("finalMass")} inputMode="decimal" error={err("finalMass")} />
+          ) : null}
+          <Field label="α" name="alpha" placeholder={`default α(0) = 1/${Number((1 / defaultAlpha).toPrecision(12))} (CODATA 2018)`} value={form.alpha} onChange={set("alpha")} inputMode="decimal" error={err("alpha")} hint="A number or a fraction such as 1/128.9." />
+        </Group>
+
+        <Group title="Curve">
+          <SelectField label="Observable" name="observable" value={form.observable} onChange={set("observable")} error={err("observable")}>
+            {OBSERVABLES.map((o) => <option key={o.value} value={o.value}>{o.label}</option>)}
+          </SelectField>
+          <SelectField label="As a function of" name="variable" value={form.variable} onChange={set("variable")}>
+            {differential ? (
+              <><option value="thetaDeg">θ in degrees</option><option value="cosTheta">cos θ</option><option value="t">t, GeV²</option></>
+            ) : (
+              <option value="none">nothing: one σ at the energy</option>
+            )}
+            <option value="energy">energy ({ENERGY_NAMES[form.energyKind]}): a scan</option>
+          </SelectField>
+          {form.variable === "none" ? null : (
+            <div className="flex flex-col gap-2" role="group" aria-label="Range">
+              <RangeInputs
+                inputs={[
+                  { label: "from", name: "from", value: form.from, onChange: set("from"), slot: RANGE_FIELDS.from },
+                  { label: "to", name: "to", value: form.to, onChange: set("to"), slot: RANGE_FIELDS.to },
+                  { label: form.binned ? "bins" : "points", name: "count", value: form.count, onChange: set("count"), slot: RANGE_FIELDS.count },
+                ]}
+                slot={slot === "range" || slot === RANGE_FIELDS.from || slot === RANGE_FIELDS.to || slot === RANGE_FIELDS.count ? slot : null}
+                message={problem?.message}
+              />
+              <Check label="Bin-averaged: the mean over equal bins instead of values at points" checked={form.binned} onChange={set("binned")} />
+            </div>
+          )}
+          {scan && differential ? (
+            <Field label="at θ, degrees" name="fixedAngle" value={form.fixedAngle} onChange={set("fixedAngle")} inputMode="decimal" error={err("fixedAngle")} />
+          ) : null}
+          {!differential ? (
+            <div className="flex flex-col gap-2">
+              <Check label="Only inside an angular acceptance (θ of the reference particle)" checked={form.acceptance} onChange={set("acceptance")} />
+              {form.acceptance ? (
+                <div className="grid grid-cols-2 gap-2">
+                  <Field label="θ from, degrees" name="acceptanceFrom" value={form.acceptanceFrom} onChange={set("acceptanceFrom")} inputMode="decimal" />
+                  <Field label="θ to, degrees" name="acceptanceTo" value={form.acceptanceTo} onChange={set("acceptanceTo")} inputMode="decimal" />
+                </div>
+              ) : null}
+              {err("acceptance") ? <p className="text-sm text-madder" role="alert">{err("acceptance")}</p> : null}
+            </div>
+          ) : null}
+          <SelectField label="Unit" name="unit" value={form.unit} onChange={set("unit")} error={err("unit")}>
+            {unitChoices(form.observable).map((u) => <option key={u} value={u}>{unitLabel(u)}</option>)}
+          </SelectField>
+        </Group>
+
+        {info.acceptsScalarFormFactor ? (
+          <Group title="Form factor of the composite scalar">
+            <SelectField label="Form factor" name="formFactor" value={form.formFactor} onChange={set("formFactor")} error={err("formFactor")}>
+              <option value="none">none (point-like)</option>
+              <option value="monopole">monopole 1/(1 − q²/Λ²)²</option>
+              <option value="vmd">vector-meson pole, mass and width</option>
+            </SelectField>
+            {form.formFactor === "monopole" ? (
+              <Field label="Λ, GeV" name="formFactorLambda" value={form.formFactorLambda} onChange={set("formFactorLambda")} inputMode="decimal" error={err("formFactor.lambda")} />
+            ) : null}
+            {form.formFactor === "vmd" ? (
+              <div className="grid grid-cols-2 gap-2">
+                <Field label="m_V, GeV" name="formFactorMass" value={form.formFactorMass} onChange={set("formFactorMass")} inputMode="decimal" error={err("formFactor.mass")} />
+                <Field label="Γ_V, GeV" name="formFactorWidth" value={form.formFactorWidth} onChange={set("formFactorWidth")} inputMode="decimal" error={err("formFactor.width")} />
+              </div>
+            ) : null}
+            {form.formFactor !== "none" ? (
+              <SelectField label="q² is" name="formFactorQ2" value={form.formFactorQ2} onChange={set("formFactorQ2")} error={err("formFactor.q2")}>
+                <option value="s">s (timelike)</option><option value="t">t (momentum transfer)</option>
+              </SelectField>
+            ) : null}
+          </Group>
         ) : null}
-        <Input label="α (empty: α(0) = 1/137.035999084, CODATA 2018)" value={form.alpha} onChange={set("alpha")} inputMode="decimal" error={fieldError("alpha")} />
-        <div className="grid grid-cols-3 gap-2">
-          <Input label="θ from, °" value={form.thetaFrom} onChange={set("thetaFrom")} inputMode="decimal" />
-          <Input label="θ to, °" value={form.thetaTo} onChange={set("thetaTo")} inputMode="decimal" />
-          <Input label="points" value={form.points} onChange={set("points")} inputMode="numeric" />
-        </div>
-        {fieldError("thetaDeg") ? <p className="text-madder" role="alert">{fieldError("thetaDeg")}</p> : null}
-        <Select label="Unit of dσ/dΩ" value={form.unit} onChange={set("unit")}>
-          {UNITS.map((u) => <option key={u} value={u}>{u.replace("ub", "µb").replace("^-2", "⁻²").replace("^2", "²")}</option>)}
-        </Select>
       </form>
 
-      <section aria-labelledby="curve-h" className="min-w-0">
+      <section aria-labelledby="curve-h" className="flex min-w-0 flex-col gap-4">
         <h2 id="curve-h" className="sr-only">Curve</h2>
-        {error && !error.field ? <Notice tone="caution">{error.message}</Notice> : null}
-        {error?.field ? <Notice tone="caution">{error.message} <span className="font-mono text-xs">({error.field})</span></Notice> : null}
-        <div className={`mt-2 border border-rule bg-sheet p-3 ${busy ? "opacity-70" : ""}`} aria-busy={busy}>
-          {result ? <PredictionChart thetas={result.thetas} values={result.ok.values} unit={result.ok.unit} frame={result.ok.frame} /> : <p className="p-10 text-ink-soft">Computing…</p>}
+        <Notice tone="info">
+          Born-level predictions only — no radiative corrections, resolution or acceptance effects. Follow the journal's and the collaboration's rules when comparing with data.
+        </Notice>
+        {slot === "general" ? <Notice tone="caution">{problem!.message}{problem!.field ? <span className="font-mono text-xs"> ({problem!.field})</span> : null}</Notice> : null}
+        <div className={`border border-rule bg-sheet p-3 ${busy || problem ? "opacity-60" : ""}`} aria-busy={busy}>
+          {problem && response ? (
+            <p className="px-1 pb-2 text-ink-soft">
+              Showing the last valid result ({response.conventions.reaction}, {OBSERVABLE_TITLE[response.observable]}); correct the marked field to update.
+            </p>
+          ) : null}
+          {response === null ? (
+            <p className="p-10 text-ink-soft">{problem ? "Nothing to show yet." : "Computing…"}</p>
+          ) : response.variable === null ? (
+            <SingleValue response={response} />
+          ) : (
+            <CurveOf response={response} />
+          )}
         </div>
-        <Conventions info={info} frame={form.frame} />
-        {result ? (
-          <div className="mt-4 flex flex-wrap items-center gap-4 text-sm">
-            <span>engine <span className="font-mono">{result.ok.engineVersion}</span></span>
-            <span>√s = <span className="num">{result.ok.sqrtS.toPrecision(6)}</span> GeV</span>
-            <span>parameters <Fingerprint value={result.ok.parametersHash} /></span>
-            <a className="underline underline-offset-4" download={`${result.ok.process}-${result.ok.frame}.csv`} href={`data:text/csv;charset=utf-8,${encodeURIComponent(csv!)}`}>Download the table (CSV)</a>
+        {response && csv ? (
+          <div className="flex flex-wrap items-center gap-x-6 gap-y-2 text-sm">
+            <span>engine <span className="font-mono">{response.engineVersion}</span></span>
+            {Array.isArray(response.sqrtS) ? null : <span>√s = <span className="num">{response.sqrtS.toPrecision(6)}</span> GeV</span>}
+            <span data-testid="parameters-hash">parameters <Fingerprint value={response.parametersHash} /></span>
+            <a className="ml-auto border border-madder bg-madder px-3.5 py-1.5 font-medium text-sheet hover:bg-madder-dark"
+              download={`${response.process}-${response.frame}-${response.parametersHash.slice(0, 8)}.csv`}
+              href={`data:text/csv;charset=utf-8,${encodeURIComponent(csv)}`}>
+              Download the table (CSV)
+            </a>
           </div>
         ) : null}
+        <div className="border-t border-rule pt-3">
+          <h2 className="mb-2 text-lg">Conventions</h2>
+          <ConventionsList info={info} frame={response?.frame ?? form.frame} response={response && response.process === info.id ? response : null} />
+        </div>
+        {response && response.values.length > 1 ? <ValuesTable response={response} /> : null}
       </section>
     </div>
   );
 }
 
-function Conventions({ info, frame }: { info: Info; frame: string }) {
+function Group({ title, children }: { title: string; children: React.ReactNode }) {
   return (
-    <dl className="mt-4 grid grid-cols-[11rem_1fr] gap-x-4 gap-y-1 border-t border-rule pt-3 text-sm" aria-label="Conventions">
-      <dt className="text-ink-soft">θ is the angle of</dt><dd>{info.referenceParticle}</dd>
-      <dt className="text-ink-soft">measured from</dt><dd>the direction of {info.axisParticle}, in the {frame === "cm" ? "CM" : "lab"} frame</dd>
-      {frame === "lab" ? <><dt className="text-ink-soft">lab frame</dt><dd>{info.beamParticle} beam on {info.targetParticle} at rest</dd></> : null}
-      <dt className="text-ink-soft">identical particles</dt><dd>{info.identicalFinalParticles ? "dσ/dΩ counts one particle in dΩ (no ½); the total is ½∫dΩ over 4π" : "the final particles are distinct"}</dd>
-      <dt className="text-ink-soft">approximation</dt><dd>tree level (Born), {info.theory}, unpolarised</dd>
-    </dl>
+    <fieldset className="flex flex-col gap-2.5 border-t border-rule pt-3">
+      <legend className="pr-2 text-xs font-medium uppercase tracking-wider text-ink-soft">{title}</legend>
+      {children}
+    </fieldset>
   );
 }
 
-function toCsv(r: ApiOk, thetas: number[]): string {
-  const head = [`# Steradian engine ${r.engineVersion}; process ${r.process}; frame ${r.frame}; sqrt(s) = ${r.sqrtS} GeV; parameters sha256 ${r.parametersHash}`, `theta_deg,dsigma_dOmega_${r.unit.replace("/", "_per_")}`];
-  return [...head, ...thetas.map((t, i) => `${t},${r.values[i]}`)].join("\n") + "\n";
-}
+type RangeInput = { label: string; name: string; value: string; onChange: React.ChangeEventHandler<HTMLInputElement>; slot: ErrorSlot };
 
-function Select({ label, children, ...rest }: { label: string; children: React.ReactNode } & React.SelectHTMLAttributes<HTMLSelectElement>) {
+/** From, to and count side by side; an error of one of them is written under the row, where it has room. */
+function RangeInputs({ inputs, slot, message }: { inputs: RangeInput[]; slot: ErrorSlot | null; message?: string }) {
+  const id = useId();
   return (
-    <label className="flex flex-col gap-1"><span className="font-medium">{label}</span>
-      <select className="border border-rule-strong bg-sheet px-2 py-1.5" {...rest}>{children}</select></label>
+    <>
+      <div className="grid grid-cols-3 gap-2">
+        {inputs.map((input) => {
+          const bad = slot === input.slot || slot === "range";
+          return (
+            <div key={input.name} className="flex flex-col gap-1">
+              <label htmlFor={`${id}-${input.name}`} className="text-sm font-medium text-ink">{input.label}</label>
+              <input id={`${id}-${input.name}`} name={input.name} value={input.value} onChange={input.onChange} inputMode={input.name === "count" ? "numeric" : "decimal"}
+                aria-invalid={bad ? true : undefined} aria-describedby={bad ? `${id}-error` : undefined}
+                className={`min-w-0 border bg-sheet px-2.5 py-1.5 text-ink outline-none focus:border-ink ${bad ? "border-madder" : "border-rule-strong"}`} />
+            </div>
+          );
+        })}
+      </div>
+      {slot && message ? <p id={`${id}-error`} className="text-sm text-madder" role="alert">{message}</p> : null}
+    </>
   );
 }
 
-function Input({ label, error, ...rest }: { label: string; error?: string } & React.InputHTMLAttributes<HTMLInputElement>) {
+function Check({ label, ...rest }: { label: string } & React.InputHTMLAttributes<HTMLInputElement>) {
   return (
-    <label className="flex flex-col gap-1"><span className="font-medium">{label}</span>
-      <input className={`border bg-sheet px-2 py-1.5 ${error ? "border-madder" : "border-rule-strong"}`} aria-invalid={error ? true : undefined} {...rest} />
-      {error ? <span className="text-madder" role="alert">{error}</span> : null}</label>
+    <label className="flex items-start gap-2">
+      <input type="checkbox" className="mt-0.5 accent-ink" {...rest} />
+      <span>{label}</span>
+    </label>
+  );
+}
+
+const OBSERVABLE_TITLE: Record<Observable, string> = { "dsigma/dOmega": "dσ/dΩ", "dsigma/dcos": "dσ/dcosθ", "dsigma/dt": "dσ/dt", sigma: "σ" };
+
+function xTitleOf(r: PredictionResponse): string {
+  const frame = r.frame === "cm" ? "CM" : "lab";
+  const eUnit = r.parameters.scan?.unit ?? "GeV";
+  switch (r.variable) {
+    case "thetaDeg": return `θ (${frame}), degrees`;
+    case "cosTheta": return `cos θ (${frame})`;
+    case "t": return "t, GeV²";
+    case "sqrtS": return `√s, ${eUnit}`;
+    case "beam": return `total beam energy, ${eUnit}`;
+    case "kinetic": return `beam kinetic energy, ${eUnit}`;
+    default: return "";
+  }
+}
+
+function CurveOf({ response: r }: { response: PredictionResponse }) {
+  const rows = useMemo<ChartRow[]>(
+    () => r.values.map((y, i) => (r.binned ? { x: r.bins![i][0], x2: r.bins![i][1], y } : { x: r.points![i], y })),
+    [r],
+  );
+  const xDomain = useMemo<[number, number] | undefined>(() => {
+    const xs = rows.flatMap((row) => (row.x2 === undefined ? [row.x] : [row.x, row.x2]));
+    const span = Math.max(...xs) - Math.min(...xs);
+    // The full angular range gives the shape its context, unless the curve covers a small part of it.
+    if (r.variable === "thetaDeg" && span >= 90) return [0, 180];
+    if (r.variable === "cosTheta" && span >= 1) return [-1, 1];
+    return undefined;
+  }, [rows, r.variable]);
+  const yTitle = `${OBSERVABLE_TITLE[r.observable]}${r.binned ? " (bin mean)" : ""}, ${unitLabel(r.unit)}`;
+  const xTitle = xTitleOf(r);
+  return <PredictionChart rows={rows} xTitle={xTitle} yTitle={yTitle} xDomain={xDomain} description={`${yTitle} against ${xTitle}, ${r.conventions.reaction}`} />;
+}
+
+function SingleValue({ response: r }: { response: PredictionResponse }) {
+  const acc = r.parameters.acceptance;
+  return (
+    <p className="p-8 text-center" data-testid="prediction-value">
+      <span className="font-serif text-lg">σ{acc ? ` (${acc.range[0]}${acc.variable === "thetaDeg" ? "°" : ""} < ${acc.variable === "thetaDeg" ? "θ" : "cos θ"} < ${acc.range[1]}${acc.variable === "thetaDeg" ? "°" : ""})` : ""} = </span>
+      <span className="num text-2xl">{r.values[0].toPrecision(8)}</span> <span>{unitLabel(r.unit)}</span>
+    </p>
+  );
+}
+
+function ValuesTable({ response: r }: { response: PredictionResponse }) {
+  const x = xTitleOf(r);
+  const scanS = Array.isArray(r.sqrtS) && r.variable !== "sqrtS" ? r.sqrtS : null;
+  return (
+    <details className="border-t border-rule pt-3 text-sm">
+      <summary className="cursor-pointer text-ink-soft">Table ({r.values.length} rows)</summary>
+      <div className="mt-2 max-h-72 overflow-auto border border-rule bg-sheet">
+        <table className="w-full text-right font-mono text-xs">
+          <thead className="sticky top-0 bg-sheet">
+            <tr className="border-b border-rule">
+              {r.binned ? <><th className="px-3 py-1 font-medium">bin from, {x}</th><th className="px-3 py-1 font-medium">bin to, {x}</th></> : <th className="px-3 py-1 font-medium">{x}</th>}
+              {scanS ? <th className="px-3 py-1 font-medium">√s, GeV</th> : null}
+              <th className="px-3 py-1 font-medium">{OBSERVABLE_TITLE[r.observable]}, {unitLabel(r.unit)}</th>
+            </tr>
+          </thead>
+          <tbody>
+            {r.values.map((v, i) => (
+              <tr key={i} className="border-b border-rule/60">
+                {r.binned ? <><td className="px-3 py-0.5">{r.bins![i][0]}</td><td className="px-3 py-0.5">{r.bins![i][1]}</td></> : <td className="px-3 py-0.5">{r.points![i]}</td>}
+                {scanS ? <td className="px-3 py-0.5">{scanS[i].toPrecision(8)}</td> : null}
+                <td className="px-3 py-0.5">{v.toPrecision(10)}</td>
+              </tr>
+            ))}
+          </tbody>
+        </table>
+      </div>
+    </details>
   );
 }
 
 export const meta: Route.MetaFunction = () => [{ title: "Predictions · Steradian" }];
+
