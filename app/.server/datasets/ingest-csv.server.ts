@@ -187,14 +187,17 @@ class ColumnStore {
   length = 0;
   private readonly data: (Float64Array | null)[];
   private lineData: Uint32Array;
-  private readonly written: readonly number[];
+  private readonly written: Int32Array;
+  // The written columns in the order of `written`, so append needs no null checks.
+  private stored: Float64Array[];
 
   constructor(
     slots: readonly number[],
     private capacity: number,
   ) {
-    this.written = slots;
+    this.written = Int32Array.from(slots);
     this.data = Array.from({ length: 8 }, (_, s) => (slots.includes(s) ? new Float64Array(capacity) : null));
+    this.stored = slots.map((s) => this.data[s] as Float64Array);
     this.lineData = new Uint32Array(capacity);
   }
 
@@ -205,7 +208,8 @@ class ColumnStore {
   append(values: Float64Array, line: number): void {
     if (this.length === this.capacity) this.grow();
     const i = this.length++;
-    for (const s of this.written) (this.data[s] as Float64Array)[i] = values[s];
+    const { stored, written } = this;
+    for (let k = 0; k < stored.length; k++) stored[k][i] = values[written[k]];
     this.lineData[i] = line;
   }
 
@@ -240,6 +244,7 @@ class ColumnStore {
       next.set(old);
       this.data[s] = next;
     }
+    this.stored = Array.from(this.written, (s) => this.data[s] as Float64Array);
     const lines = new Uint32Array(this.capacity);
     lines.set(this.lineData);
     this.lineData = lines;
