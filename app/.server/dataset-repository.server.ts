@@ -126,8 +126,8 @@ export async function saveRevision(args: {
       [args.datasetId, args.contentHash, args.raw.sha256, args.raw.key, args.raw.fileName, args.raw.bytes, args.rowCount, JSON.stringify(args.quantity), JSON.stringify(args.mapping), args.userId],
     );
     const rev = inserted.rows[0];
-    const copy = client.query(copyFrom("COPY dataset_row (revision_id, idx, x, x_low, x_high, y, stat_minus, stat_plus, syst_minus, syst_plus) FROM STDIN"));
-    await pipeline(Readable.from(copyLines(rev.id, args.rowCount, args.columns)), copy);
+    const copy = client.query(copyFrom("COPY dataset_row (revision_id, idx, x, x_low, x_high, y, stat_minus, stat_plus, syst_minus, syst_plus) FROM STDIN WITH (FORMAT binary)"));
+    await pipeline(Readable.from(copyBinary(rev.id, args.rowCount, args.columns)), copy);
     await client.query("UPDATE dataset SET mapping = $2 WHERE id = $1", [args.datasetId, JSON.stringify(args.mapping)]);
     await client.query("COMMIT");
     return { created: true, revision: { id: rev.id, number: rev.number, contentHash: args.contentHash, rowCount: args.rowCount } };
@@ -139,21 +139,43 @@ export async function saveRevision(args: {
   }
 }
 
-/** COPY's text format, in chunks of a few thousand rows; absent columns are \N. */
-function* copyLines(revisionId: string, n: number, c: IngestColumns): Generator<string> {
+/**
+ * COPY's binary format (PostgreSQL manual, "COPY", binary file format): the server reads the
+ * doubles as they are, with no text formatting here or float parsing there — the costliest
+ * part of a text COPY of a large revision. Absent columns are NULL (length −1).
+ */
+function* copyBinary(revisionId: string, n: number, c: IngestColumns): Generator<Buffer> {
   const cols = [c.x, c.xLow, c.xHigh, c.y, c.statMinus, c.statPlus, c.systMinus, c.systPlus];
-  const CHUNK = 4096;
-  let buf = "";
-  for (let i = 0; i < n; i++) {
-    let line = `${revisionId}\t${i}`;
-    for (const col of cols) line += col ? `\t${col[i]}` : "\t\\N";
-    buf += `${line}\n`;
-    if ((i + 1) % CHUNK === 0) {
-      yield buf;
-      buf = "";
+  const uuid = Buffer.from(revisionId.replace(/-/g, ""), "hex");
+  const header = Buffer.alloc(19);
+  Buffer.from("PGCOPY\n\xff\r\n\0", "latin1").copy(header, 0);
+  yield header; // flags and header-extension length stay 0
+  const ROWS = 4096;
+  const rowBytes = 2 + (4 + 16) + (4 + 4) + cols.reduce((sum, col) => sum + (col ? 12 : 4), 0);
+  for (let start = 0; start < n; start += ROWS) {
+    const end = Math.min(n, start + ROWS);
+    const buf = Buffer.allocUnsafe((end - start) * rowBytes);
+    let o = 0;
+    for (let i = start; i < end; i++) {
+      o = buf.writeInt16BE(10, o);
+      o = buf.writeInt32BE(16, o);
+      o += uuid.copy(buf, o);
+      o = buf.writeInt32BE(4, o);
+      o = buf.writeInt32BE(i, o);
+      for (const col of cols) {
+        if (col) {
+          o = buf.writeInt32BE(8, o);
+          o = buf.writeDoubleBE(col[i], o);
+        } else {
+          o = buf.writeInt32BE(-1, o);
+        }
+      }
     }
+    yield buf;
   }
-  if (buf) yield buf;
+  const trailer = Buffer.alloc(2);
+  trailer.writeInt16BE(-1, 0);
+  yield trailer;
 }
 
 export async function revisionCount(db: Db, datasetId: string): Promise<number> {

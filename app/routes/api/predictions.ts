@@ -14,7 +14,8 @@ export async function action({ request }: Route.ActionArgs) {
   try {
     body = await request.json();
   } catch {
-    return apiError(422, "invalid-json", "The request body is not valid JSON.", { field: "" });
+    // The same code as the command line's for the same mistake.
+    return apiError(422, "malformed_json", "The request body is not valid JSON.", { field: "" });
   }
   try {
     return Response.json(runPrediction(body));
