@@ -12,6 +12,9 @@ export default defineConfig({
           include: ["app/**/*.test.ts", "db/**/*.test.ts", "scripts/**/*.test.ts"],
           environment: "node",
           setupFiles: ["tests/setup/fail-on-console-error.ts"],
+          // Some reference integrals (e.g. a strongly peaked dσ/dΩ at γ = 1000) take seconds
+          // on a loaded 2-core machine; a time limit is not an accuracy bound.
+          testTimeout: 60_000,
         },
       },
       {
