@@ -2,7 +2,7 @@ import tseslint from "typescript-eslint";
 
 const pureRestriction = {
   patterns: [
-    { group: ["react", "react-*", "react/*", "react-dom", "react-dom/*"], message: "app/engine and app/figures/pure stay free of React." },
+    { group: ["react", "react/*", "react-dom", "react-dom/*", "react-vega", "vega-embed"], message: "app/engine and app/figures/pure stay free of React." },
     { group: ["react-router", "@react-router/*"], message: "Pure modules must not import the framework." },
     { group: ["kysely", "kysely/*", "pg", "pg/*"], message: "Pure modules must not touch the database." },
     { group: ["node:*"], message: "Pure modules must run in the browser too: no node: imports." },

@@ -14,6 +14,10 @@ SMTP_PORT="${STERADIAN_TEST_SMTP_PORT:-2526}"
 MAIL_HTTP_PORT="${STERADIAN_TEST_MAIL_HTTP_PORT:-2527}"
 
 ensure_node_modules
+log "lint and typecheck"
+npx eslint app db scripts tests
+npx react-router typegen >/dev/null 2>&1
+npx tsc --noEmit
 ensure_browser() {
   if [ ! -x /usr/bin/chromium ] || ! command -v pdffonts >/dev/null; then
     log "installing Debian's chromium and poppler-utils for the browser tests"

@@ -1,10 +1,11 @@
 /** A quiet boxed note; `tone` changes the rule colour and the leading glyph, never colour alone. */
 export function Notice({ tone = "info", children }: { tone?: "info" | "ok" | "caution"; children: React.ReactNode }) {
-  const glyph = { info: "ⓘ", ok: "✓", caution: "!" }[tone];
+  // Glyphs that the bundled UI font has (a circled i is not among them).
+  const glyph = { info: "i", ok: "✓", caution: "!" }[tone];
   const rule = { info: "border-rule-strong", ok: "border-ok", caution: "border-madder" }[tone];
   return (
     <div role={tone === "caution" ? "alert" : "status"} className={`flex gap-3 border-l-2 ${rule} bg-sheet px-3 py-2 text-sm`}>
-      <span aria-hidden="true" className="font-mono">{glyph}</span>
+      <span aria-hidden="true" className="font-mono font-semibold">{glyph}</span>
       <div>{children}</div>
     </div>
   );
