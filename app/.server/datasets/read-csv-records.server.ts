@@ -11,7 +11,11 @@ import { createUtf8Guard, NotUtf8Error } from "./utf8-guard.server";
 /** Returned by a record callback to end reading early (preview, row limit). */
 export const STOP = Symbol("stop reading");
 
-export type RecordCallback = (fields: string[], line: number) => void | typeof STOP;
+/**
+ * A returned promise holds the reader (and, through the pipeline, the file) until it settles,
+ * so a slower consumer downstream sets the pace; a rejection ends the read with its error.
+ */
+export type RecordCallback = (fields: string[], line: number) => void | typeof STOP | Promise<void>;
 
 export interface ReadCsvOutcome {
   delimiter: CsvDelimiter;
@@ -55,11 +59,15 @@ export async function readCsvRecords(
         callback();
         return;
       }
-      let verdict: void | typeof STOP;
+      let verdict: void | typeof STOP | Promise<void>;
       try {
         verdict = onRecord(fields, line);
       } catch (error) {
         callback(error as Error);
+        return;
+      }
+      if (verdict instanceof Promise) {
+        verdict.then(() => callback(), (error: Error) => callback(error));
         return;
       }
       callback(verdict === STOP ? new StopSignal() : null);
