@@ -6,10 +6,10 @@ import type { ColumnMapping } from "~/datasets/column-mapping";
 import type { DatasetProblem } from "~/datasets/dataset-problem";
 import type { QuantityDescription } from "~/datasets/quantity";
 import { recordAudit } from "./audit.server";
-import { ingestCsvInto, type StreamedIngestResult } from "./datasets/ingest-csv.server";
+import { ingestCsv } from "./datasets/ingest-csv.server";
 import { db } from "./db.server";
 import { env } from "./env.server";
-import { RevisionRowCopy, type SaveRevisionResult } from "./dataset-repository.server";
+import { type SaveRevisionResult, saveRevision } from "./dataset-repository.server";
 import type { BlobStore } from "./storage/blob-store.server";
 import { createBlobStoreFromEnv } from "./storage/from-env.server";
 import { createUploadReceiver, type StoredUpload, uploadLimitOf } from "./storage/upload-handler.server";
@@ -76,40 +76,24 @@ export async function ingestUpload(args: {
   quantity: QuantityDescription;
 }): Promise<UploadOutcome> {
   const st = blobStore();
-  // The rows flow into PostgreSQL while the file is read; they become a revision only if the
-  // whole file passes, and are rolled back otherwise (docs/decisions/0005-streamed-copy.md).
-  const rows = new RevisionRowCopy(args.mapping);
-  let result: StreamedIngestResult;
-  try {
-    result = await ingestCsvInto(args.tempPath, { mapping: args.mapping, quantity: args.quantity, limits: { maxRows: env.UPLOAD_MAX_ROWS } }, rows);
-  } catch (e) {
-    await rows.abort();
-    throw e;
-  }
+  const result = await ingestCsv(args.tempPath, { mapping: args.mapping, quantity: args.quantity, limits: { maxRows: env.UPLOAD_MAX_ROWS } });
   if (!result.ok) {
-    await rows.abort();
     await st.discard(args.tempPath);
     const detail = result.reason === "problems" ? { problemCount: result.problemCount, fileName: args.raw.fileName } : { limit: result.limit, fileName: args.raw.fileName };
     await recordAudit(db, { action: "revision-rejected", actorId: args.userId, manuscriptId: args.manuscriptId, ip: args.ip, detail: { datasetId: args.datasetId, ...detail } });
     return result.reason === "problems" ? { kind: "problems", problems: result.problems, problemCount: result.problemCount } : { kind: "limit", limit: result.limit };
   }
-  const identical = await rows.complete(args.datasetId, result.hash, result.rowCount);
+  const existing = await db.selectFrom("dataset_revision").select(["id", "number", "row_count"]).where("dataset_id", "=", args.datasetId).where("content_hash", "=", result.hash).executeTakeFirst();
   let saved: SaveRevisionResult;
-  if (identical) {
-    saved = { created: false, identicalTo: identical };
+  if (existing) {
+    saved = { created: false, identicalTo: { id: existing.id, number: existing.number, contentHash: result.hash, rowCount: existing.row_count } };
     await st.discard(args.tempPath);
   } else {
-    let key: string;
-    try {
-      ({ key } = await st.commit(args.tempPath, args.raw.sha256));
-    } catch (e) {
-      await rows.abort();
-      throw e;
-    }
-    saved = await rows.commit({
+    const { key } = await st.commit(args.tempPath, args.raw.sha256);
+    saved = await saveRevision({
       datasetId: args.datasetId, userId: args.userId, contentHash: result.hash,
       raw: { sha256: args.raw.sha256, key, fileName: args.raw.fileName, bytes: args.raw.bytes },
-      quantity: args.quantity, mapping: args.mapping, rowCount: result.rowCount,
+      quantity: args.quantity, mapping: args.mapping, rowCount: result.rowCount, columns: result.columns,
     });
   }
   const revision = saved.created ? saved.revision : saved.identicalTo;

@@ -42,29 +42,8 @@ export type IngestResult =
       delimiter: CsvDelimiter;
       headers: string[];
     }
-  | IngestRefusal;
-
-export type IngestRefusal =
   | { ok: false; reason: "problems"; problems: DatasetProblem[]; problemCount: number }
   | { ok: false; reason: "limit"; limit: { kind: "rows"; max: number } };
-
-/** The outcome of `ingestCsvInto`: as `IngestResult`, but the rows went to the sink. */
-export type StreamedIngestResult = IngestRefusal | { ok: true; rowCount: number; hash: string; delimiter: CsvDelimiter; headers: string[] };
-
-/**
- * Receives the normalised rows in file order while the file is read, for as long as the
- * file has shown no problem. It may therefore have received rows of a file that is refused
- * in the end (a later bad row, a duplicate, the row limit, a byte that is not UTF-8): only
- * an `ok` result makes them a revision.
- */
-export interface RowSink {
-  /**
-   * `values` in SLOT order (absent slots NaN), reused for the next row: copy what is kept.
-   * A returned promise holds the reader until it settles (backpressure); a rejection ends
-   * the ingest with its error.
-   */
-  row(values: Float64Array): void | Promise<void>;
-}
 
 const HASH_FLUSH_CHARS = 1 << 16;
 const INITIAL_CAPACITY = 1 << 14;
@@ -76,30 +55,6 @@ const INITIAL_CAPACITY = 1 << 14;
  * plus 4 bytes per row for the line numbers, whatever the size of the file's text.
  */
 export async function ingestCsv(filePath: string, options: IngestOptions): Promise<IngestResult> {
-  const result = await ingest(filePath, options, null);
-  if (!result.ok) return result;
-  const { store, ...rest } = result;
-  return { ...rest, columns: store.columns(options.mapping) };
-}
-
-/**
- * As `ingestCsv`, but each good row goes to `sink` as soon as it is read (while no problem has
- * been found), so that a consumer such as a COPY into PostgreSQL runs beside the parse instead
- * of after it. Only the x values (or bin edges) and line numbers are kept, for the duplicate
- * check after the last row.
- */
-export async function ingestCsvInto(filePath: string, options: IngestOptions, sink: RowSink): Promise<StreamedIngestResult> {
-  const result = await ingest(filePath, options, sink);
-  if (!result.ok) return result;
-  const { store: _store, ...rest } = result;
-  return rest;
-}
-
-async function ingest(
-  filePath: string,
-  options: IngestOptions,
-  sink: RowSink | null,
-): Promise<IngestRefusal | (Extract<StreamedIngestResult, { ok: true }> & { store: ColumnStore })> {
   const { mapping, quantity } = options;
   const maxRows = options.limits.maxRows;
   const problems = new ProblemCollector();
@@ -113,7 +68,7 @@ async function ingest(
   const out = new Float64Array(8);
   let capacity = INITIAL_CAPACITY;
 
-  const onRecord = (fields: string[], line: number): void | typeof STOP | Promise<void> => {
+  const onRecord = (fields: string[], line: number): void | typeof STOP => {
     if (headers === null) {
       headers = fields.map((f) => f.trim());
       const created = createRowValidator(headers, mapping, quantity);
@@ -122,8 +77,7 @@ async function ingest(
         return STOP;
       }
       validator = created.validator;
-      const kept = sink === null ? validator.slots : validator.hasBins ? [SLOT.xLow, SLOT.xHigh] : [SLOT.x];
-      store = new ColumnStore(kept, capacity);
+      store = new ColumnStore(validator.slots, capacity);
       pendingText = normalFormHeader(mapping, quantity, validator.scales);
       return;
     }
@@ -133,7 +87,6 @@ async function ingest(
       overLimit = true;
       return STOP;
     }
-    let pending: void | Promise<void> = undefined;
     if (v.validate(fields, line, problems, out)) {
       if (problems.isEmpty) {
         pendingText += v.normalFormLine();
@@ -141,14 +94,12 @@ async function ingest(
           hash.update(pendingText);
           pendingText = "";
         }
-        if (sink !== null) pending = sink.row(out);
       }
     } else {
       // A failed row takes no part in the duplicate check.
       out[SLOT.x] = out[SLOT.xLow] = out[SLOT.xHigh] = NaN;
     }
     store.append(out, line);
-    return pending;
   };
 
   const outcome = await readCsvRecords(filePath, onRecord, {
@@ -184,7 +135,7 @@ async function ingest(
     ok: true,
     rowCount: s.length,
     hash: hash.digest("hex"),
-    store: s,
+    columns: s.columns(mapping),
     delimiter: outcome.delimiter,
     headers,
   };

@@ -11,11 +11,7 @@ import { createUtf8Guard, NotUtf8Error } from "./utf8-guard.server";
 /** Returned by a record callback to end reading early (preview, row limit). */
 export const STOP = Symbol("stop reading");
 
-/**
- * A returned promise holds the reader (and, through the pipeline, the file) until it settles,
- * so a slower consumer downstream sets the pace; a rejection ends the read with its error.
- */
-export type RecordCallback = (fields: string[], line: number) => void | typeof STOP | Promise<void>;
+export type RecordCallback = (fields: string[], line: number) => void | typeof STOP;
 
 export interface ReadCsvOutcome {
   delimiter: CsvDelimiter;
@@ -59,15 +55,11 @@ export async function readCsvRecords(
         callback();
         return;
       }
-      let verdict: void | typeof STOP | Promise<void>;
+      let verdict: void | typeof STOP;
       try {
         verdict = onRecord(fields, line);
       } catch (error) {
         callback(error as Error);
-        return;
-      }
-      if (verdict instanceof Promise) {
-        verdict.then(() => callback(), (error: Error) => callback(error));
         return;
       }
       callback(verdict === STOP ? new StopSignal() : null);
