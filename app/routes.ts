@@ -38,6 +38,7 @@ export default [
     route("predictions", "routes/api/predictions.ts"),
     route("*", "routes/api/not-found.ts"),
   ]),
+  route("api/*", "routes/api/not-found.ts", { id: "api-outside-v1" }),
   route("healthz", "routes/healthz.ts"),
   route("*", "routes/not-found.tsx"),
 ] satisfies RouteConfig;

@@ -10,6 +10,9 @@ const build = await import("../build/server/index.js");
 
 const app = express();
 app.disable("x-powered-by");
+// Behind a load balancer, TRUST_PROXY (e.g. "1" or "loopback") makes req.ip the client's address,
+// which the per-address sign-in throttle counts (Express "trust proxy" setting).
+if (process.env.TRUST_PROXY) app.set("trust proxy", /^\d+$/.test(process.env.TRUST_PROXY) ? Number(process.env.TRUST_PROXY) : process.env.TRUST_PROXY);
 app.use(compression());
 app.use("/assets", express.static("build/client/assets", { immutable: true, maxAge: "1y" }));
 app.use(express.static("build/client", { maxAge: "1h" }));
@@ -21,6 +24,11 @@ app.all(
 const server = app.listen(port, host, () => {
   console.log(`[steradian] serving on http://${host}:${port}`);
 });
+// Longer than the usual 60 s idle timeout of load balancers and HTTP clients, so that the server
+// is never the side that closes an idle kept-alive connection just as a client reuses it (a
+// large upload sent on such a connection fails with "other side closed"); common practice.
+server.keepAliveTimeout = 65_000;
+server.headersTimeout = 66_000;
 const stop = () => server.close(() => process.exit(0));
 process.on("SIGTERM", stop);
 process.on("SIGINT", stop);

@@ -8,6 +8,22 @@ PG_DIR="$ROOT/.data/pg"
 DB_NAME="${STERADIAN_DB_NAME:-steradian}"
 source scripts/lib/setup.sh
 
+pids=()
+cleanup() {
+  local code=$?
+  trap - INT TERM EXIT
+  # The terminal (or a pipe such as tee) may already be gone: never let a failed write stop
+  # the shutdown half-way.
+  trap '' PIPE
+  log "shutting down" 2>/dev/null || true
+  for p in "${pids[@]}"; do kill -TERM "$p" 2>/dev/null || true; done
+  for p in "${pids[@]}"; do wait "$p" 2>/dev/null || true; done
+  stop_postgres
+  exit "$code"
+}
+# Set before anything starts, so that a failure or Ctrl-C during set-up stops PostgreSQL too.
+trap cleanup INT TERM EXIT
+
 ensure_node_modules
 start_postgres
 ensure_database "$DB_NAME"
@@ -22,7 +38,7 @@ export STORAGE_DIR="${STORAGE_DIR:-$ROOT/storage}"
 export APP_URL="${APP_URL:-http://$HOST:$PORT}"
 if [ -z "${SESSION_SECRET:-}" ]; then
   # A local secret kept in .data so sessions survive a restart; a real deployment sets its own.
-  [ -f .data/session-secret ] || head -c 32 /dev/urandom | base64 > .data/session-secret
+  [ -f .data/session-secret ] || (umask 077; head -c 32 /dev/urandom | base64 > .data/session-secret)
   SESSION_SECRET="$(cat .data/session-secret)"; export SESSION_SECRET
 fi
 
@@ -37,27 +53,13 @@ if [ ! -f build/server/index.js ] || [ -n "$(find app -newer build/server/index.
   npx react-router build > .data/build.log 2>&1 || { cat .data/build.log; exit 1; }
 fi
 
-pids=()
-cleanup() {
-  trap - INT TERM EXIT
-  # The terminal (or a pipe such as tee) may already be gone: never let a failed write stop
-  # the shutdown half-way.
-  trap '' PIPE
-  log "shutting down" 2>/dev/null || true
-  for p in "${pids[@]}"; do kill -TERM "$p" 2>/dev/null || true; done
-  for p in "${pids[@]}"; do wait "$p" 2>/dev/null || true; done
-  stop_postgres
-  exit 0
-}
-trap cleanup INT TERM EXIT
-
 node_modules/.bin/tsx scripts/mail-catcher.ts --smtp "${SMTP_URL##*:}" --http "${MAIL_CATCHER_URL##*:}" &
 pids+=($!)
 node_modules/.bin/tsx scripts/prepare-storage.ts
-node scripts/serve.js &
+node scripts/serve.js > >(tee .data/server.log) 2>&1 &
 pids+=($!)
+wait_healthy "$!" "$APP_URL" .data/server.log
 
-sleep 1.5
 cat <<MSG
 
   Steradian is running at $APP_URL
@@ -71,5 +73,5 @@ cat <<MSG
   Ctrl-C stops the app, the mail catcher and PostgreSQL.
 
 MSG
+# Ctrl-C, or either process ending, stops everything.
 wait -n "${pids[@]}" || true
-cleanup

@@ -33,7 +33,9 @@ cleanup() {
   trap - INT TERM EXIT
   for p in "${pids[@]}"; do kill -TERM "$p" 2>/dev/null || true; done
   for p in "${pids[@]}"; do wait "$p" 2>/dev/null || true; done
-  stop_postgres
+  stop_postgres >/dev/null 2>&1
+  # The runner's summary is the very last line of the run.
+  [ -f "$ROOT/.data/test-results.json" ] && node scripts/lib/test-summary.mjs "$ROOT/.data/test-results.json" || true
   exit "$code"
 }
 trap cleanup INT TERM EXIT
@@ -57,6 +59,9 @@ DATABASE_URL="$(database_url steradian_test_app)" npx tsx db/seed.ts >/dev/null
 log "building the app"
 npx react-router build >/dev/null 2>&1 || npx react-router build
 
+for port in "$APP_PORT" "$SMTP_PORT" "$MAIL_HTTP_PORT"; do
+  port_free "$port" || { echo "port $port is in use (a test run left running?): stop it first" >&2; exit 1; }
+done
 node_modules/.bin/tsx scripts/mail-catcher.ts --smtp "$SMTP_PORT" --http "$MAIL_HTTP_PORT" >/dev/null &
 pids+=($!)
 node_modules/.bin/tsx scripts/prepare-storage.ts
@@ -65,11 +70,7 @@ PORT="$APP_PORT" DATABASE_URL="$(database_url steradian_test_app)" SMTP_URL="smt
   UPLOAD_MAX_BYTES="${TEST_UPLOAD_MAX_BYTES:-2097152}" UPLOAD_MAX_ROWS="${TEST_UPLOAD_MAX_ROWS:-20000}" \
   node scripts/serve.js > "$ROOT/.data/test-server.log" 2>&1 &
 pids+=($!)
-for _ in $(seq 1 100); do
-  curl -fs "http://127.0.0.1:$APP_PORT/healthz" >/dev/null 2>&1 && break
-  sleep 0.2
-done
-curl -fs "http://127.0.0.1:$APP_PORT/healthz" >/dev/null || { echo "the test server did not start:"; cat "$ROOT/.data/test-server.log"; exit 1; }
+wait_healthy "$!" "http://127.0.0.1:$APP_PORT" "$ROOT/.data/test-server.log"
 
 export TEST_APP_URL="http://127.0.0.1:$APP_PORT"
 export TEST_APP_DATABASE_URL="$(database_url steradian_test_app)"
@@ -79,11 +80,11 @@ export TEST_SMTP_PORT="$SMTP_PORT"
 export TEST_STORAGE_DIR="$STORAGE_DIR"
 export TEST_UPLOAD_MAX_BYTES="${TEST_UPLOAD_MAX_BYTES:-2097152}" TEST_UPLOAD_MAX_ROWS="${TEST_UPLOAD_MAX_ROWS:-20000}"
 
+rm -f "$ROOT/.data/test-results.json"
 set +e
 npx vitest run --reporter=default --reporter=json --outputFile.json="$ROOT/.data/test-results.json" "$@"
 status=$?
 set -e
-node scripts/lib/test-summary.mjs "$ROOT/.data/test-results.json" || true
 if [ "$status" != 0 ]; then
   echo "server log (last 40 lines):"; tail -n 40 "$ROOT/.data/test-server.log" || true
 fi

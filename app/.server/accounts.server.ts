@@ -23,6 +23,8 @@ export const SignUpForm = z.object({ name: NameSchema, email: EmailSchema, passw
  */
 export async function signUp(db: Db, input: z.infer<typeof SignUpForm>, ip: string): Promise<void> {
   const existing = await findUserByEmail(db, input.email);
+  // Hashed in both branches, so that the answer's timing does not tell whether an account exists.
+  const passwordHash = await hashPassword(input.password);
   if (existing) {
     await sendMail({
       to: input.email,
@@ -32,7 +34,6 @@ export async function signUp(db: Db, input: z.infer<typeof SignUpForm>, ip: stri
     });
     return;
   }
-  const passwordHash = await hashPassword(input.password);
   const token = newSecret();
   await db.transaction().execute(async (tx) => {
     const user = await tx

@@ -6,9 +6,11 @@ export class AdminError extends Error {}
 
 export async function setAccountStatus(db: Db, adminId: string, userId: string, status: "active" | "disabled", ip: string | null) {
   if (adminId === userId && status === "disabled") throw new AdminError("You cannot disable your own account.");
-  const res = await db.updateTable("app_user").set({ status }).where("id", "=", userId).executeTakeFirst();
-  if (Number(res.numUpdatedRows) === 0) throw new AdminError("No such account.");
-  await recordAudit(db, { action: status === "disabled" ? "account-disabled" : "account-enabled", actorId: adminId, ip, detail: { userId } });
+  await db.transaction().execute(async (tx) => {
+    const res = await tx.updateTable("app_user").set({ status }).where("id", "=", userId).executeTakeFirst();
+    if (Number(res.numUpdatedRows) === 0) throw new AdminError("No such account.");
+    await recordAudit(tx, { action: status === "disabled" ? "account-disabled" : "account-enabled", actorId: adminId, ip, detail: { userId } });
+  });
 }
 
 /** An admin reset sends the owner a reset link; the admin never sees or sets a password. */

@@ -1,4 +1,5 @@
 import { Readable } from "node:stream";
+import { isUuid } from "~/is-uuid";
 import type { ManuscriptAction } from "~/permissions";
 import { recordAudit } from "./audit.server";
 import { findDataset, findRevision } from "./dataset-repository.server";
@@ -11,7 +12,7 @@ import type { SessionUser } from "./users.server";
 export async function accessDataset(mode: Mode, request: Request, manuscriptId: string, datasetId: string, action: ManuscriptAction) {
   const user = mode === "api" ? await requireApiUser(request) : await requireUser(request);
   const role = await requirePermission(mode, user, manuscriptId, action);
-  const dataset = await findDataset(db, manuscriptId, datasetId);
+  const dataset = isUuid(datasetId) ? await findDataset(db, manuscriptId, datasetId) : undefined;
   if (!dataset) notFound(mode, "The dataset");
   return { user, role, dataset };
 }
@@ -46,4 +47,9 @@ export async function rawFileResponse(args: { user: SessionUser; manuscriptId: s
       "X-Content-SHA256": args.revision.raw_sha256,
     },
   });
+}
+
+/** Refusals before the file is even read (over the byte limit, not multipart, no file) are audited too. */
+export async function auditRefusedUpload(args: { userId: string; manuscriptId: string; datasetId: string; ip: string | null; reason: string }) {
+  await recordAudit(db, { action: "revision-rejected", actorId: args.userId, manuscriptId: args.manuscriptId, ip: args.ip, detail: { datasetId: args.datasetId, reason: args.reason } });
 }

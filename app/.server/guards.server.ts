@@ -1,5 +1,6 @@
 import { data, redirect } from "react-router";
 import { type ManuscriptAction, type MemberRole, ROLE_LABELS, can, canSite, rolesFor, type SiteAction } from "~/permissions";
+import { isUuid } from "~/is-uuid";
 import { db } from "./db.server";
 import { hashSecret } from "./tokens.server";
 import { clearSessionCookie, sessionUserId } from "./session.server";
@@ -48,7 +49,7 @@ export async function requireApiUser(request: Request): Promise<SessionUser> {
 }
 
 export async function membershipRole(manuscriptId: string, userId: string): Promise<MemberRole | null> {
-  if (!/^[0-9a-f-]{36}$/i.test(manuscriptId)) return null;
+  if (!isUuid(manuscriptId)) return null;
   const row = await db
     .selectFrom("membership")
     .select("role")

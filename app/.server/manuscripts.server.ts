@@ -91,18 +91,20 @@ export async function inviteMember(
     .executeTakeFirst();
   if (already) throw new MembershipError(`${args.email} is already a member of this manuscript.`, "email");
   const token = newSecret();
-  await db
-    .insertInto("invitation")
-    .values({
-      manuscript_id: args.manuscriptId,
-      email: args.email,
-      role: args.role,
-      token_hash: token.hash,
-      invited_by: args.inviter.id,
-      expires_at: new Date(Date.now() + INVITATION_TTL_MS),
-    })
-    .execute();
-  await recordAudit(db, { action: "member-invited", actorId: args.inviter.id, manuscriptId: args.manuscriptId, ip: args.ip, detail: { email: args.email, role: args.role } });
+  await db.transaction().execute(async (tx) => {
+    await tx
+      .insertInto("invitation")
+      .values({
+        manuscript_id: args.manuscriptId,
+        email: args.email,
+        role: args.role,
+        token_hash: token.hash,
+        invited_by: args.inviter.id,
+        expires_at: new Date(Date.now() + INVITATION_TTL_MS),
+      })
+      .execute();
+    await recordAudit(tx, { action: "member-invited", actorId: args.inviter.id, manuscriptId: args.manuscriptId, ip: args.ip, detail: { email: args.email, role: args.role } });
+  });
   await sendMail({
     to: args.email,
     subject: `Invitation to “${manuscript.title}” on Steradian`,
@@ -126,23 +128,48 @@ export async function findInvitation(db: Db, secret: string) {
 
 /** Adds the user to the manuscript named by the invitation; one use, before it expires. */
 export async function acceptInvitation(db: Db, invitationId: string, userId: string, ip: string | null): Promise<string> {
+  return db.transaction().execute((tx) => joinByInvitation(tx, invitationId, userId, ip));
+}
+
+/** The body of acceptInvitation, inside a transaction the caller holds. */
+async function joinByInvitation(tx: Db, invitationId: string, userId: string, ip: string | null): Promise<string> {
+  const inv = await tx
+    .updateTable("invitation")
+    .set({ accepted_at: new Date(), accepted_by: userId })
+    .where("id", "=", invitationId)
+    .where("accepted_at", "is", null)
+    .where("expires_at", ">", new Date())
+    .returning(["manuscript_id", "role"])
+    .executeTakeFirst();
+  if (!inv) throw new MembershipError("This invitation has expired or was already used.", "form");
+  await tx
+    .insertInto("membership")
+    .values({ manuscript_id: inv.manuscript_id, user_id: userId, role: inv.role })
+    .onConflict((oc) => oc.columns(["manuscript_id", "user_id"]).doNothing())
+    .execute();
+  await recordAudit(tx, { action: "member-joined", actorId: userId, manuscriptId: inv.manuscript_id, ip, detail: { role: inv.role } });
+  return inv.manuscript_id;
+}
+
+/**
+ * A new person accepts an invitation: the account (active at once, since following the e-mailed
+ * link proves the address) and the membership in one transaction, so that a double submit or
+ * an expired invitation leaves no account behind.
+ */
+export async function createAccountFromInvitation(
+  db: Db,
+  args: { invitationId: string; email: string; name: string; passwordHash: string; ip: string | null },
+): Promise<{ userId: string; manuscriptId: string }> {
   return db.transaction().execute(async (tx) => {
-    const inv = await tx
-      .updateTable("invitation")
-      .set({ accepted_at: new Date(), accepted_by: userId })
-      .where("id", "=", invitationId)
-      .where("accepted_at", "is", null)
-      .where("expires_at", ">", new Date())
-      .returning(["manuscript_id", "role"])
+    const created = await tx
+      .insertInto("app_user")
+      .values({ email: args.email, name: args.name, password_hash: args.passwordHash, status: "active", email_confirmed_at: new Date() })
+      .onConflict((oc) => oc.column("email").doNothing())
+      .returning("id")
       .executeTakeFirst();
-    if (!inv) throw new MembershipError("This invitation has expired or was already used.", "form");
-    await tx
-      .insertInto("membership")
-      .values({ manuscript_id: inv.manuscript_id, user_id: userId, role: inv.role })
-      .onConflict((oc) => oc.columns(["manuscript_id", "user_id"]).doNothing())
-      .execute();
-    await recordAudit(tx, { action: "member-joined", actorId: userId, manuscriptId: inv.manuscript_id, ip, detail: { role: inv.role } });
-    return inv.manuscript_id;
+    if (!created) throw new MembershipError("An account with this address exists already: sign in to accept the invitation.", "form");
+    const manuscriptId = await joinByInvitation(tx, args.invitationId, created.id, args.ip);
+    return { userId: created.id, manuscriptId };
   });
 }
 
@@ -152,27 +179,31 @@ function lastCorresponding(e: unknown): boolean {
 
 export async function changeRole(db: Db, args: { manuscriptId: string; actorId: string; userId: string; role: MemberRole; ip: string | null }) {
   try {
-    const res = await db
-      .updateTable("membership")
-      .set({ role: args.role })
-      .where("manuscript_id", "=", args.manuscriptId)
-      .where("user_id", "=", args.userId)
-      .executeTakeFirst();
-    if (Number(res.numUpdatedRows) === 0) throw new MembershipError("That person is not a member of this manuscript.", "userId");
+    await db.transaction().execute(async (tx) => {
+      const res = await tx
+        .updateTable("membership")
+        .set({ role: args.role })
+        .where("manuscript_id", "=", args.manuscriptId)
+        .where("user_id", "=", args.userId)
+        .executeTakeFirst();
+      if (Number(res.numUpdatedRows) === 0) throw new MembershipError("That person is not a member of this manuscript.", "userId");
+      await recordAudit(tx, { action: "member-role-changed", actorId: args.actorId, manuscriptId: args.manuscriptId, ip: args.ip, detail: { userId: args.userId, role: args.role } });
+    });
   } catch (e) {
     if (lastCorresponding(e)) throw new MembershipError("The manuscript needs at least one corresponding author: name another one first.", "role");
     throw e;
   }
-  await recordAudit(db, { action: "member-role-changed", actorId: args.actorId, manuscriptId: args.manuscriptId, ip: args.ip, detail: { userId: args.userId, role: args.role } });
 }
 
 export async function removeMember(db: Db, args: { manuscriptId: string; actorId: string; userId: string; ip: string | null }) {
   try {
-    const res = await db.deleteFrom("membership").where("manuscript_id", "=", args.manuscriptId).where("user_id", "=", args.userId).executeTakeFirst();
-    if (Number(res.numDeletedRows) === 0) throw new MembershipError("That person is not a member of this manuscript.", "userId");
+    await db.transaction().execute(async (tx) => {
+      const res = await tx.deleteFrom("membership").where("manuscript_id", "=", args.manuscriptId).where("user_id", "=", args.userId).executeTakeFirst();
+      if (Number(res.numDeletedRows) === 0) throw new MembershipError("That person is not a member of this manuscript.", "userId");
+      await recordAudit(tx, { action: "member-removed", actorId: args.actorId, manuscriptId: args.manuscriptId, ip: args.ip, detail: { userId: args.userId } });
+    });
   } catch (e) {
     if (lastCorresponding(e)) throw new MembershipError("The last corresponding author cannot be removed: name another one first.", "userId");
     throw e;
   }
-  await recordAudit(db, { action: "member-removed", actorId: args.actorId, manuscriptId: args.manuscriptId, ip: args.ip, detail: { userId: args.userId } });
 }

@@ -16,7 +16,9 @@ export const sessionStorage = createCookieSessionStorage<SessionData, SessionFla
     name: "__steradian",
     httpOnly: true,
     sameSite: "lax",
-    secure: env.NODE_ENV === "production" && env.APP_URL.startsWith("https:"),
+    // Browsers accept Secure cookies from http://127.0.0.1 and localhost, so a local
+    // production start keeps working.
+    secure: env.NODE_ENV === "production",
     path: "/",
     maxAge: SESSION_MAX_AGE_S,
     secrets: [env.SESSION_SECRET],

@@ -23,7 +23,8 @@ export class SignInError extends Error {
 export const SignInForm = z.object({
   email: z.string().trim().min(3, "Enter your e-mail address.").max(254, "At most 254 characters.").email("Enter an e-mail address like name@example.org."),
   password: z.string().min(1, "Enter your password.").max(200, "At most 200 characters."),
-  redirectTo: z.string().max(500).optional(),
+  // A target too long to be one of ours is dropped rather than blocking the sign-in.
+  redirectTo: z.string().max(1000).optional().catch(undefined),
 });
 
 // Runs bcrypt even for unknown addresses so that timing does not tell them apart.

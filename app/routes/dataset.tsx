@@ -1,6 +1,6 @@
 import { Form, Link, data, redirect, useActionData, useLoaderData, useNavigation, useSearchParams } from "react-router";
 import type { Route } from "./+types/dataset";
-import { accessDataset } from "~/.server/dataset-access.server";
+import { accessDataset, auditRefusedUpload } from "~/.server/dataset-access.server";
 import { MappingForm } from "~/.server/dataset-input.server";
 import { limitMessage } from "~/.server/dataset-json.server";
 import { listRevisions } from "~/.server/dataset-repository.server";
@@ -10,6 +10,7 @@ import { env } from "~/.server/env.server";
 import { fieldErrorsOf } from "~/.server/forms.server";
 import { loadManuscriptPage } from "~/.server/manuscript-context.server";
 import { type UploadOutcome, describePending, ingestUpload, pendingId, receiveUploadForm } from "~/.server/revision-upload.server";
+import { pendingIdOf, signPending, verifyPending } from "~/.server/pending-upload.server";
 import { clientIp } from "~/.server/sign-in.server";
 import { Fingerprint } from "~/components/fingerprint";
 import { ManuscriptNav } from "~/components/manuscript-nav";
@@ -29,9 +30,10 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const pending = url.searchParams.get("pending");
   let mappingStep = null;
   if (pending && page.can["upload:revision"]) {
-    const file = await describePending(pending);
+    const fileName = url.searchParams.get("file") ?? "";
+    const file = await openPending(pending, { userId: page.user.id, datasetId: dataset.id, fileName });
     const preview = file ? await previewCsv(file.tempPath, { rows: 8 }) : null;
-    mappingStep = { pending, fileName: url.searchParams.get("file") ?? "upload.csv", gone: !file, preview };
+    mappingStep = { pending, fileName, gone: !file, preview };
   }
   const saved = dataset.mapping ? columnMappingSchema.safeParse(dataset.mapping) : null;
   return { ...page, dataset, revisions, mappingStep, savedMapping: saved?.success ? saved.data : null, maxBytes: env.UPLOAD_MAX_BYTES };
@@ -50,7 +52,11 @@ export async function action({ request, params, context }: Route.ActionArgs) {
 
   if ((request.headers.get("content-type") ?? "").startsWith("multipart/form-data")) {
     const form = await receiveUploadForm(request);
-    if (!form.ok) return data<ActionResult>({ kind: "error", message: form.limit ? limitMessage(form.limit) : form.message }, { status: form.limit ? 413 : 422 });
+    if (!form.ok) {
+      const message = form.limit ? limitMessage(form.limit) : form.message;
+      await auditRefusedUpload({ userId: user.id, manuscriptId: params.manuscriptId, datasetId: dataset.id, ip: common.ip, reason: message });
+      return data<ActionResult>({ kind: "error", message }, { status: form.limit ? 413 : 422 });
+    }
     if (!form.upload || form.upload.bytes === 0 && form.upload.fileName === "") {
       await form.discard();
       return data<ActionResult>({ kind: "error", message: "Choose a CSV file to upload.", fieldErrors: { file: "Choose a CSV file to upload." } }, { status: 422 });
@@ -62,16 +68,25 @@ export async function action({ request, params, context }: Route.ActionArgs) {
       return answer(outcome, base);
     }
     // Kept in temporary storage until its columns are mapped; cleaned at the next start if abandoned.
-    throw redirect(`${base}?pending=${encodeURIComponent(pendingId(upload))}&file=${encodeURIComponent(upload.fileName)}`);
+    const token = signPending({ id: pendingId(upload), userId: user.id, datasetId: dataset.id, sha256: upload.sha256, fileName: upload.fileName });
+    throw redirect(`${base}?pending=${encodeURIComponent(token)}&file=${encodeURIComponent(upload.fileName)}`);
   }
 
   const fields = Object.fromEntries(await request.formData());
-  const pending = await describePending(String(fields.pending ?? ""));
+  const fileName = String(fields.fileName ?? "");
+  const pending = await openPending(String(fields.pending ?? ""), { userId: user.id, datasetId: dataset.id, fileName });
   if (!pending) return data<ActionResult>({ kind: "error", message: "That upload is no longer waiting (it was used, or the server restarted). Upload the file again." }, { status: 422 });
   const mapping = MappingForm.safeParse(fields);
   if (!mapping.success) return data<ActionResult>({ kind: "error", message: "Some columns need attention.", fieldErrors: fieldErrorsOf(mapping.error) }, { status: 422 });
-  const outcome = await ingestUpload({ ...common, tempPath: pending.tempPath, raw: { sha256: pending.sha256, bytes: pending.bytes, fileName: String(fields.fileName || "upload.csv") }, mapping: mapping.data });
+  const outcome = await ingestUpload({ ...common, tempPath: pending.tempPath, raw: { sha256: pending.sha256, bytes: pending.bytes, fileName }, mapping: mapping.data });
   return answer(outcome, base);
+}
+
+/** The waiting file, if the token was made for this user, dataset and file; else null. */
+async function openPending(token: string, claim: { userId: string; datasetId: string; fileName: string }) {
+  const id = pendingIdOf(token);
+  const file = id ? await describePending(id) : null;
+  return file && verifyPending(token, { id: id!, sha256: file.sha256, ...claim }) ? file : null;
 }
 
 function answer(o: UploadOutcome, base: string) {

@@ -5,7 +5,7 @@ import { NameSchema, PasswordSchema } from "~/.server/accounts.server";
 import { db } from "~/.server/db.server";
 import { fieldErrorsOf, invalid } from "~/.server/forms.server";
 import { optionalUser } from "~/.server/guards.server";
-import { MembershipError, acceptInvitation, findInvitation } from "~/.server/manuscripts.server";
+import { MembershipError, acceptInvitation, createAccountFromInvitation, findInvitation } from "~/.server/manuscripts.server";
 import { clientIp } from "~/.server/sign-in.server";
 import { startSession } from "~/.server/session.server";
 import { findUserByEmail, hashPassword } from "~/.server/users.server";
@@ -55,14 +55,8 @@ export async function action({ request, params, context }: Route.ActionArgs) {
     const parsed = NewAccount.safeParse(Object.fromEntries(await request.formData()));
     if (!parsed.success) return invalid(fieldErrorsOf(parsed.error));
     const passwordHash = await hashPassword(parsed.data.password);
-    // Following the e-mailed link proves the address: the account is active at once.
-    const created = await db
-      .insertInto("app_user")
-      .values({ email: inv.email, name: parsed.data.name, password_hash: passwordHash, status: "active", email_confirmed_at: new Date() })
-      .returning("id")
-      .executeTakeFirstOrThrow();
-    const id = await acceptInvitation(db, inv.id, created.id, ip);
-    return await startSession(created.id, `/manuscripts/${id}`, "Welcome to Steradian.");
+    const { userId, manuscriptId } = await createAccountFromInvitation(db, { invitationId: inv.id, email: inv.email, name: parsed.data.name, passwordHash, ip });
+    return await startSession(userId, `/manuscripts/${manuscriptId}`, "Welcome to Steradian.");
   } catch (e) {
     if (e instanceof MembershipError) return data({ ok: false as const, message: e.message, fieldErrors: {} as Record<string, string> }, { status: 422 });
     throw e;

@@ -4,7 +4,13 @@
 # (PG_PORT, PG_DIR, DB_NAME) set by the caller.
 set -euo pipefail
 
-PG_BIN="${PG_BIN:-/usr/lib/postgresql/15/bin}"
+# Debian 12 ships PostgreSQL 15 (STACK.md); on another release take the newest installed major.
+pg_bin_dir() {
+  if [ -x /usr/lib/postgresql/15/bin/postgres ]; then echo /usr/lib/postgresql/15/bin; return; fi
+  local newest; newest=$(ls -d /usr/lib/postgresql/*/bin 2>/dev/null | sort -V | tail -n1)
+  echo "${newest:-/usr/lib/postgresql/15/bin}"
+}
+PG_BIN="${PG_BIN:-$(pg_bin_dir)}"
 DB_USER="${DB_USER:-steradian}"
 DB_PASSWORD="${DB_PASSWORD:-steradian}"
 
@@ -32,6 +38,7 @@ ensure_postgres_binaries() {
   if [ ! -x "$PG_BIN/postgres" ]; then
     log "installing Debian's PostgreSQL server (apt-get install postgresql)"
     apt_install postgresql
+    PG_BIN="$(pg_bin_dir)"
   fi
 }
 
@@ -129,4 +136,22 @@ ensure_database() {
 
 database_url() {
   printf 'postgres://%s:%s@127.0.0.1:%s/%s' "$DB_USER" "$DB_PASSWORD" "$PG_PORT" "$1"
+}
+
+# Waits until the app answers /healthz, and fails early if its process died (a port already in
+# use, say) instead of trusting whatever else answers on that port.
+wait_healthy() {
+  local pid="$1" url="$2" log_file="$3"
+  for _ in $(seq 1 150); do
+    if ! kill -0 "$pid" 2>/dev/null; then
+      echo "the app did not start:" >&2; cat "$log_file" >&2; return 1
+    fi
+    node -e "fetch(process.argv[1]).then((r) => process.exit(r.ok ? 0 : 1), () => process.exit(1))" "$url/healthz" && return 0
+    sleep 0.2
+  done
+  echo "the app did not answer on $url within 30 s:" >&2; cat "$log_file" >&2; return 1
+}
+
+port_free() {
+  ! node -e "const s=require('net').connect(+process.argv[1],'127.0.0.1');s.on('connect',()=>process.exit(0));s.on('error',()=>process.exit(1))" "$1"
 }

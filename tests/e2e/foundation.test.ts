@@ -1,5 +1,5 @@
 // As a person would: in Debian's chromium, through the real pages.
-import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { afterAll, afterEach, beforeAll, describe, expect, it } from "vitest";
 import type { BrowserContext, Page } from "playwright-core";
 import { launchBrowser } from "../support/browser";
 import { testEnv } from "../support/env";
@@ -13,12 +13,16 @@ beforeAll(async () => {
 });
 afterAll(() => browser?.close());
 
+const pageErrors: string[] = [];
 async function freshPage(context: BrowserContext): Promise<Page> {
   await context.clearCookies();
   const page = await context.newPage();
-  page.on("pageerror", (e) => { throw e; });
+  page.on("pageerror", (e) => pageErrors.push(e.message));
   return page;
 }
+afterEach(() => {
+  expect(pageErrors.splice(0)).toEqual([]);
+});
 
 async function signIn(page: Page, email: string, password: string) {
   await page.goto(`${testEnv.appUrl}/sign-in`);
@@ -34,7 +38,8 @@ describe("foundation in the browser", () => {
     await signIn(page, DEMO.contributor, DEMO.password);
     await page.getByRole("link", { name: /Positron annihilation in flight/ }).click();
     await page.waitForURL(new RegExp(`/manuscripts/${DEMO.manuscriptId}$`));
-    await expect(page.getByRole("heading", { level: 1 }).textContent()).resolves.toContain("Positron annihilation");
+    // The address changes before the new page has rendered: wait for its heading.
+    await page.getByRole("heading", { level: 1, name: /Positron annihilation/ }).waitFor();
     await expect(page.getByText("demo · synthetic").first().isVisible()).resolves.toBe(true);
     await page.getByRole("button", { name: "Sign out" }).click();
     await page.waitForURL(/\/sign-in$/);

@@ -16,6 +16,9 @@ const db = connect(testEnv.appDatabaseUrl);
 const clients = {} as Record<Who, Client>;
 let manuscriptId = "";
 let datasetId = "";
+let otherManuscriptId = "";
+let otherDatasetId = "";
+let targetMemberId = "";
 let unique = 0;
 const fresh = () => ++unique;
 const AUTHORS: Who[] = ["contributor", "corresponding"];
@@ -36,6 +39,15 @@ beforeAll(async () => {
     await clients[w].signIn(ids[w as Exclude<Who, "anonymous">].email, TEST_PASSWORD);
   }
   datasetId = await createDatasetViaApi(clients.corresponding, manuscriptId, "matrix data");
+  // A member to change and remove, re-added before every call.
+  targetMemberId = (await createAccount(db, "matrix-target")).id;
+  // Another manuscript that everyone in the matrix belongs to: its dataset must not be
+  // reachable under the first manuscript's address.
+  otherManuscriptId = await createManuscriptWith(db, [
+    { id: ids.corresponding.id, role: "corresponding" },
+    ...(["coauthor", "contributor", "observer", "outsider", "admin"] as const).map((w) => ({ id: ids[w].id, role: "observer" as const })),
+  ]);
+  otherDatasetId = await createDatasetViaApi(clients.corresponding, otherManuscriptId, "other data");
   const r1 = await clients.corresponding.upload(`/api/v1/manuscripts/${manuscriptId}/datasets/${datasetId}/revisions`, angularCsv());
   expect(r1.status).toBe(201);
 });
@@ -52,6 +64,10 @@ interface Case {
 }
 
 const pageDenied = (w: Who) => (MEMBERS.includes(w) ? 403 : 404);
+
+async function ensureTarget() {
+  await db.insertInto("membership").values({ manuscript_id: manuscriptId, user_id: targetMemberId, role: "observer" }).onConflict((oc) => oc.columns(["manuscript_id", "user_id"]).doUpdateSet({ role: "observer" })).execute();
+}
 const apiDenied = pageDenied;
 
 const cases: Case[] = [
@@ -74,6 +90,36 @@ const cases: Case[] = [
     name: "POST /api/v1/predictions", allowed: SIGNED_IN,
     call: (c) => c.postJson("/api/v1/predictions", { process: "compton", frame: "lab", energy: { beam: 0.001 }, thetaDeg: [90], unit: "mb/sr" }),
     denied: () => 0, anonymous: 401,
+  },
+  {
+    name: "POST /manuscripts (create)", allowed: SIGNED_IN, okStatus: 302,
+    call: (c) => c.post("/manuscripts?index", { title: `matrix manuscript ${fresh()}` }), denied: () => 0, anonymous: 302,
+  },
+  { name: "POST /account (create a token)", allowed: SIGNED_IN, call: (c) => c.post("/account", { intent: "create-token", name: `t${fresh()}` }), denied: () => 0, anonymous: 302 },
+  {
+    name: "POST /admin/accounts (disable, re-enable)", allowed: ["admin"],
+    call: async (c) => {
+      const res = await c.post("/admin/accounts", { intent: "disable", userId: targetMemberId });
+      await db.updateTable("app_user").set({ status: "active" }).where("id", "=", targetMemberId).execute();
+      return res;
+    },
+    denied: () => 403, anonymous: 302,
+  },
+  {
+    name: "POST /manuscripts/:id/members (change role)", allowed: ["corresponding"],
+    call: async (c) => {
+      await ensureTarget();
+      return c.post(`/manuscripts/${manuscriptId}/members`, { intent: "change-role", userId: targetMemberId, role: "coauthor" });
+    },
+    denied: pageDenied, anonymous: 302,
+  },
+  {
+    name: "POST /manuscripts/:id/members (remove)", allowed: ["corresponding"],
+    call: async (c) => {
+      await ensureTarget();
+      return c.post(`/manuscripts/${manuscriptId}/members`, { intent: "remove", userId: targetMemberId });
+    },
+    denied: pageDenied, anonymous: 302,
   },
   // Datasets (issue 4).
   { name: "GET /manuscripts/:id/datasets", allowed: MEMBERS, call: (c) => c.get(`/manuscripts/${manuscriptId}/datasets`), denied: pageDenied, anonymous: 302 },
@@ -106,6 +152,20 @@ const cases: Case[] = [
   },
   { name: "GET /api/v1/…/revisions/1", allowed: MEMBERS, call: (c) => c.get(`/api/v1/manuscripts/${manuscriptId}/datasets/${datasetId}/revisions/1`), denied: apiDenied, anonymous: 401 },
   { name: "GET /api/v1/…/revisions/1/rows", allowed: MEMBERS, call: (c) => c.get(`/api/v1/manuscripts/${manuscriptId}/datasets/${datasetId}/revisions/1/rows`), denied: apiDenied, anonymous: 401 },
+  {
+    name: "POST /manuscripts/:id/datasets/:d (mapping step)", allowed: AUTHORS, okStatus: 422,
+    // A made-up waiting file: the allowed roles reach the check and are told to upload again.
+    call: (c) => c.post(`/manuscripts/${manuscriptId}/datasets/${datasetId}`, { pending: "00000000-0000-4000-8000-000000000000.upload.forged", fileName: "x.csv", x: "theta", y: "dsigma" }),
+    denied: pageDenied, anonymous: 302,
+  },
+  {
+    name: "GET another manuscript's dataset under this manuscript's address", allowed: [],
+    call: (c) => c.get(`/api/v1/manuscripts/${manuscriptId}/datasets/${otherDatasetId}`), denied: () => 404, anonymous: 401,
+  },
+  {
+    name: "DELETE /api/v1/manuscripts/:id (a method it does not take)", allowed: [],
+    call: (c) => c.request(`/api/v1/manuscripts/${manuscriptId}`, { method: "DELETE" }), denied: () => 405, anonymous: 401,
+  },
   { name: "GET /api/v1/…/revisions/1/raw", allowed: READERS_OF_RAW, call: (c) => c.get(`/api/v1/manuscripts/${manuscriptId}/datasets/${datasetId}/revisions/1/raw`), denied: apiDenied, anonymous: 401 },
 ];
 
@@ -121,6 +181,28 @@ describe("authorisation matrix (foundation and dataset routes)", () => {
       expect(got).toEqual(want);
     });
   }
+
+  it("a personal access token gets exactly what its owner's session gets", async () => {
+    const created = await clients.contributor.post("/account", { intent: "create-token", name: "matrix token" });
+    const secret = /data-testid="new-token">(sdn_[A-Za-z0-9_-]+)</.exec(await created.text())![1];
+    const bearer = { Authorization: `Bearer ${secret}` };
+    const anon = new Client();
+    expect((await anon.get(`/api/v1/manuscripts/${manuscriptId}/datasets`, bearer)).status).toBe(200);
+    expect((await anon.get(`/api/v1/manuscripts/${manuscriptId}/datasets/${datasetId}/revisions/1/raw`, bearer)).status).toBe(200);
+    expect((await anon.get(`/api/v1/manuscripts/${otherManuscriptId}/datasets`, bearer)).status).toBe(200);
+    expect((await anon.postJson(`/api/v1/manuscripts/${otherManuscriptId}/datasets`, { name: "x", quantity: { x: { kind: "cos_theta" }, y: { kind: "sigma", unit: "nb" } } }, bearer)).status).toBe(403);
+    // A token is for the API: pages still need the session.
+    expect((await anon.get(`/manuscripts/${manuscriptId}`, bearer)).status).toBe(302);
+  });
+
+  it("ids that are not uuids are 404s, never 500s", async () => {
+    for (const path of [`/api/v1/manuscripts/${"-".repeat(36)}`, `/api/v1/manuscripts/${"a".repeat(36)}`, `/api/v1/manuscripts/${manuscriptId}/datasets/${"-".repeat(36)}`, `/api/v1/manuscripts/${manuscriptId}/datasets/${datasetId}/revisions/r99999999999`]) {
+      const res = await clients.corresponding.get(path);
+      expect(res.status, path).toBe(404);
+      expect(res.headers.get("content-type"), path).toMatch(/application\/json/);
+    }
+    expect((await clients.corresponding.get("/api/v2/anything")).headers.get("content-type")).toMatch(/application\/json/);
+  });
 
   it("API denials are JSON with an error code and message, never HTML", async () => {
     for (const [who, path] of [["anonymous", "/api/v1/manuscripts"], ["outsider", `/api/v1/manuscripts/${manuscriptId}`], ["outsider", "/api/v1/no-such-thing"]] as const) {

@@ -1,4 +1,5 @@
 import type { Route } from "./+types/datasets";
+import { apiHandler } from "~/.server/api-handler.server";
 import { recordAudit } from "~/.server/audit.server";
 import { DatasetInput } from "~/.server/dataset-input.server";
 import { datasetJson } from "~/.server/dataset-json.server";
@@ -7,14 +8,14 @@ import { db } from "~/.server/db.server";
 import { apiError, requireApiUser, requirePermission } from "~/.server/guards.server";
 import { clientIp } from "~/.server/sign-in.server";
 
-export async function loader({ request, params }: Route.LoaderArgs) {
+export const loader = apiHandler(async ({ request, params }: Route.LoaderArgs) => {
   const user = await requireApiUser(request);
   await requirePermission("api", user, params.manuscriptId, "read:dataset");
   const rows = await listDatasets(db, params.manuscriptId);
   return Response.json({ datasets: rows.map((d) => datasetJson({ ...d, mapping: null }, d.latestRevision)) });
-}
+});
 
-export async function action({ request, params, context }: Route.ActionArgs) {
+export const action = apiHandler(async ({ request, params, context }: Route.ActionArgs) => {
   const user = await requireApiUser(request);
   await requirePermission("api", user, params.manuscriptId, "create:dataset");
   if (request.method !== "POST") return apiError(405, "method-not-allowed", "Create a dataset with POST.");
@@ -39,4 +40,4 @@ export async function action({ request, params, context }: Route.ActionArgs) {
   await recordAudit(db, { action: "dataset-created", actorId: user.id, manuscriptId: params.manuscriptId, ip: clientIp(context), detail: { datasetId: created.id, name: v.name } });
   const full = await db.selectFrom("dataset").selectAll().where("id", "=", created.id).executeTakeFirstOrThrow();
   return Response.json({ dataset: datasetJson(full, null) }, { status: 201 });
-}
+});

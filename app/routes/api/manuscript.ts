@@ -1,10 +1,11 @@
 import type { Route } from "./+types/manuscript";
+import { apiHandler, methodNotAllowed } from "~/.server/api-handler.server";
 import { db } from "~/.server/db.server";
 import { notFound, requireApiUser, requirePermission } from "~/.server/guards.server";
 import { getManuscript, listMembers } from "~/.server/manuscripts.server";
 import { capabilities } from "~/permissions";
 
-export async function loader({ request, params }: Route.LoaderArgs) {
+export const loader = apiHandler(async ({ request, params }: Route.LoaderArgs) => {
   const user = await requireApiUser(request);
   const role = await requirePermission("api", user, params.manuscriptId, "read:manuscript");
   const manuscript = await getManuscript(db, params.manuscriptId);
@@ -20,4 +21,6 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     permissions: capabilities(role),
     members: members.map((m) => ({ userId: m.userId, name: m.name, email: m.email, role: m.role, addedAt: m.added_at })),
   });
-}
+});
+
+export const action = methodNotAllowed("GET");

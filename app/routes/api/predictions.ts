@@ -1,13 +1,14 @@
 import type { Route } from "./+types/predictions";
+import { apiHandler } from "~/.server/api-handler.server";
 import { apiError, requireApiUser } from "~/.server/guards.server";
 import { EngineInputError, runPrediction } from "~/engine";
 
-export async function loader({ request }: Route.LoaderArgs) {
+export const loader = apiHandler(async ({ request }: Route.LoaderArgs) => {
   await requireApiUser(request);
   return apiError(405, "method-not-allowed", "Send the prediction request as JSON with POST.");
-}
+});
 
-export async function action({ request }: Route.ActionArgs) {
+export const action = apiHandler(async ({ request }: Route.ActionArgs) => {
   await requireApiUser(request);
   if (request.method !== "POST") return apiError(405, "method-not-allowed", "Send the prediction request as JSON with POST.");
   let body: unknown;
@@ -23,4 +24,4 @@ export async function action({ request }: Route.ActionArgs) {
     if (e instanceof EngineInputError) return apiError(422, e.code, e.message, { field: e.field });
     throw e;
   }
-}
+});

@@ -1,5 +1,6 @@
 import { z } from "zod";
 import type { Route } from "./+types/revision-rows";
+import { apiHandler, methodNotAllowed } from "~/.server/api-handler.server";
 import { accessRevision } from "~/.server/dataset-access.server";
 import { revisionRowsPage } from "~/.server/dataset-repository.server";
 import { ROW_SORTS } from "~/revision-row-sorts";
@@ -15,7 +16,7 @@ const RowsQuery = z.object({
   dir: z.enum(["asc", "desc"], { message: "dir must be asc or desc" }).default("asc"),
 });
 
-export async function loader({ request, params }: Route.LoaderArgs) {
+export const loader = apiHandler(async ({ request, params }: Route.LoaderArgs) => {
   const { revision } = await accessRevision("api", request, params);
   const q = RowsQuery.safeParse(Object.fromEntries(new URL(request.url).searchParams));
   if (!q.success) return apiError(422, "invalid-query", q.error.issues[0].message, { field: q.error.issues[0].path.join(".") });
@@ -29,4 +30,6 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     page, pageSize, totalRows: revision.row_count, totalPages: Math.ceil(revision.row_count / pageSize),
     rows: rows.map((r) => ({ row: r.idx + 1, x: r.x, xLow: r.x_low, xHigh: r.x_high, y: r.y, statMinus: r.stat_minus, statPlus: r.stat_plus, systMinus: r.syst_minus, systPlus: r.syst_plus })),
   });
-}
+});
+
+export const action = methodNotAllowed("GET");

@@ -1,5 +1,6 @@
 import type { Route } from "./+types/revisions";
-import { accessDataset } from "~/.server/dataset-access.server";
+import { apiHandler } from "~/.server/api-handler.server";
+import { accessDataset, auditRefusedUpload } from "~/.server/dataset-access.server";
 import { limitMessage, revisionJson, uploadOutcomeResponse } from "~/.server/dataset-json.server";
 import { listRevisions } from "~/.server/dataset-repository.server";
 import { db } from "~/.server/db.server";
@@ -9,18 +10,25 @@ import { clientIp } from "~/.server/sign-in.server";
 import { columnMappingSchema } from "~/datasets/column-mapping";
 import { quantitySchema } from "~/datasets/quantity";
 
-export async function loader({ request, params }: Route.LoaderArgs) {
+export const loader = apiHandler(async ({ request, params }: Route.LoaderArgs) => {
   const { dataset } = await accessDataset("api", request, params.manuscriptId, params.datasetId, "read:dataset");
   return Response.json({ revisions: (await listRevisions(db, dataset.id)).map(revisionJson) });
-}
+});
 
-export async function action({ request, params, context }: Route.ActionArgs) {
+export const action = apiHandler(async ({ request, params, context }: Route.ActionArgs) => {
   const { user, dataset } = await accessDataset("api", request, params.manuscriptId, params.datasetId, "upload:revision");
   if (request.method !== "POST") return apiError(405, "method-not-allowed", "Upload a revision with POST (multipart/form-data).");
+  const refused = (reason: string) => auditRefusedUpload({ userId: user.id, manuscriptId: params.manuscriptId, datasetId: dataset.id, ip: clientIp(context), reason });
   const form = await receiveUploadForm(request);
-  if (!form.ok) return form.limit ? apiError(413, "too-large", limitMessage(form.limit), { limit: form.limit }) : apiError(422, "invalid-upload", form.message, { field: "file" });
+  if (!form.ok) {
+    await refused(form.limit ? limitMessage(form.limit) : form.message);
+    return form.limit ? apiError(413, "too-large", limitMessage(form.limit), { limit: form.limit }) : apiError(422, "invalid-upload", form.message, { field: "file" });
+  }
   try {
-    if (!form.upload) return apiError(422, "missing-file", "Send the CSV file in a multipart field named “file”.", { field: "file" });
+    if (!form.upload) {
+      await refused("no file part");
+      return apiError(422, "missing-file", "Send the CSV file in a multipart field named “file”.", { field: "file" });
+    }
     const mappingText = form.fields.get("mapping");
     let mapping: unknown = dataset.mapping;
     if (typeof mappingText === "string" && mappingText.trim() !== "") {
@@ -46,4 +54,4 @@ export async function action({ request, params, context }: Route.ActionArgs) {
   } finally {
     await form.discard();
   }
-}
+});
