@@ -1,8 +1,8 @@
 import { Form, Link, data, redirect, useActionData, useLoaderData } from "react-router";
 import type { Route } from "./+types/datasets";
-import { recordAudit } from "~/.server/audit.server";
+import { DatasetNameTaken, createDatasetAudited } from "~/.server/dataset-create.server";
 import { DatasetForm } from "~/.server/dataset-input.server";
-import { createDataset, listDatasets } from "~/.server/dataset-repository.server";
+import { listDatasets } from "~/.server/dataset-repository.server";
 import { db } from "~/.server/db.server";
 import { fieldErrorsOf, invalid } from "~/.server/forms.server";
 import { requirePermission, requireUser } from "~/.server/guards.server";
@@ -32,14 +32,13 @@ export async function action({ request, params, context }: Route.ActionArgs) {
     for (const [k, v] of Object.entries(errors)) flat[{ "quantity.y.unit": "yUnit", "quantity.x.unit": "xUnit", "metadata.beamEnergyGeV": "beamEnergyGeV", "metadata.process": "process" }[k] ?? k] = v;
     return invalid(flat);
   }
-  const v = parsed.data;
-  const taken = await db.selectFrom("dataset").select("id").where("manuscript_id", "=", params.manuscriptId).where("name", "=", v.name).executeTakeFirst();
-  if (taken) return data({ ok: false as const, message: "Some fields need attention.", fieldErrors: { name: `This manuscript already has a dataset named “${v.name}”.` } }, { status: 422 });
-  const created = await createDataset(db, {
-    manuscriptId: params.manuscriptId, userId: user.id, name: v.name, quantity: v.quantity, mapping: null,
-    metadata: { process: v.metadata.process ?? null, beamEnergyGeV: v.metadata.beamEnergyGeV ?? null, target: v.metadata.target ?? null, description: v.metadata.description ?? "" },
-  });
-  await recordAudit(db, { action: "dataset-created", actorId: user.id, manuscriptId: params.manuscriptId, ip: clientIp(context), detail: { datasetId: created.id, name: v.name } });
+  let created;
+  try {
+    created = await createDatasetAudited(db, { manuscriptId: params.manuscriptId, userId: user.id, ip: clientIp(context), input: parsed.data });
+  } catch (e) {
+    if (e instanceof DatasetNameTaken) return data({ ok: false as const, message: "Some fields need attention.", fieldErrors: { name: e.message } }, { status: 422 });
+    throw e;
+  }
   throw redirect(`/manuscripts/${params.manuscriptId}/datasets/${created.id}`);
 }
 

@@ -53,7 +53,8 @@ pg_system_user() {
 
 run_pg() {
   local u; u=$(pg_system_user)
-  if [ "$(id -un)" = "$u" ]; then "$@"; else runuser -u "$u" -- "$@"; fi
+  # From /, which the server's user can always enter (the checkout may not be readable to it).
+  if [ "$(id -un)" = "$u" ]; then "$@"; else (cd / && runuser -u "$u" -- "$@"); fi
 }
 
 # The cluster lives in .data/ unless the server's user cannot reach the checkout (a home folder

@@ -42,6 +42,9 @@ describe("datasets API", () => {
     const body = (await bad.json()) as { error: { field: string; message: string } };
     expect(body.error.field).toBe("quantity.y.unit");
     expect(body.error.message).toMatch(/per steradian/);
+    const twice = await c.postJson(`/api/v1/manuscripts/${manuscriptId}/datasets`, { name: "angular", quantity: { x: { kind: "theta_cm_deg" }, y: { kind: "dsigma_domega", unit: "nb/sr" } } });
+    expect(twice.status).toBe(422);
+    expect(((await twice.json()) as { error: { code: string; field: string } }).error).toMatchObject({ code: "name-taken", field: "name" });
     const list = (await (await c.get(`/api/v1/manuscripts/${manuscriptId}/datasets`)).json()) as { datasets: Array<{ name: string }> };
     expect(list.datasets.map((d) => d.name)).toEqual(["angular"]);
   });

@@ -1,9 +1,9 @@
 import type { Route } from "./+types/datasets";
 import { apiHandler } from "~/.server/api-handler.server";
-import { recordAudit } from "~/.server/audit.server";
+import { DatasetNameTaken, createDatasetAudited } from "~/.server/dataset-create.server";
 import { DatasetInput } from "~/.server/dataset-input.server";
 import { datasetJson } from "~/.server/dataset-json.server";
-import { createDataset, listDatasets } from "~/.server/dataset-repository.server";
+import { listDatasets } from "~/.server/dataset-repository.server";
 import { db } from "~/.server/db.server";
 import { apiError, requireApiUser, requirePermission } from "~/.server/guards.server";
 import { clientIp } from "~/.server/sign-in.server";
@@ -30,14 +30,13 @@ export const action = apiHandler(async ({ request, params, context }: Route.Acti
     const issue = parsed.error.issues[0];
     return apiError(422, "invalid-dataset", issue.message, { field: issue.path.join("."), issues: parsed.error.issues.map((i) => ({ field: i.path.join("."), message: i.message })) });
   }
-  const v = parsed.data;
-  const taken = await db.selectFrom("dataset").select("id").where("manuscript_id", "=", params.manuscriptId).where("name", "=", v.name).executeTakeFirst();
-  if (taken) return apiError(422, "name-taken", `This manuscript already has a dataset named “${v.name}”.`, { field: "name" });
-  const created = await createDataset(db, {
-    manuscriptId: params.manuscriptId, userId: user.id, name: v.name, quantity: v.quantity, mapping: v.mapping ?? null,
-    metadata: { process: v.metadata.process ?? null, beamEnergyGeV: v.metadata.beamEnergyGeV ?? null, target: v.metadata.target ?? null, description: v.metadata.description ?? "" },
-  });
-  await recordAudit(db, { action: "dataset-created", actorId: user.id, manuscriptId: params.manuscriptId, ip: clientIp(context), detail: { datasetId: created.id, name: v.name } });
+  let created;
+  try {
+    created = await createDatasetAudited(db, { manuscriptId: params.manuscriptId, userId: user.id, ip: clientIp(context), input: parsed.data });
+  } catch (e) {
+    if (e instanceof DatasetNameTaken) return apiError(422, "name-taken", e.message, { field: "name" });
+    throw e;
+  }
   const full = await db.selectFrom("dataset").selectAll().where("id", "=", created.id).executeTakeFirstOrThrow();
   return Response.json({ dataset: datasetJson(full, null) }, { status: 201 });
 });
