@@ -83,6 +83,19 @@ describe("constraints", () => {
     expect(n.rows[0].n).toBe(1);
   });
 
+  it("a dataset row must belong to an existing revision, in bulk and row by row", async () => {
+    const u = await user("rows@example.org");
+    const m = (await db.insertInto("manuscript").values({ title: "T", created_by: u }).returning("id").executeTakeFirstOrThrow()).id;
+    const d = (await db.insertInto("dataset").values({ manuscript_id: m, name: "d", quantity: "{}", created_by: u }).returning("id").executeTakeFirstOrThrow()).id;
+    const r = (await db.insertInto("dataset_revision").values({ dataset_id: d, number: 1, content_hash: "a".repeat(64), raw_sha256: "b".repeat(64), raw_key: "k", raw_filename: "f.csv", raw_bytes: 1, row_count: 1, quantity: "{}", mapping: "{}", created_by: u }).returning("id").executeTakeFirstOrThrow()).id;
+    await db.insertInto("dataset_row").values({ revision_id: r, idx: 0, x: 1, y: 1 }).execute();
+    const ghost = "00000000-0000-4000-8000-000000000000";
+    await expect(db.insertInto("dataset_row").values({ revision_id: ghost, idx: 0, x: 1, y: 1 }).execute()).rejects.toThrow(/does not exist/);
+    await expect(db.insertInto("dataset_row").values([{ revision_id: r, idx: 1, x: 2, y: 1 }, { revision_id: ghost, idx: 1, x: 2, y: 1 }]).execute()).rejects.toThrow(/does not exist/);
+    const n = await sql<{ n: number }>`SELECT count(*)::int AS n FROM dataset_row`.execute(db);
+    expect(n.rows[0].n).toBe(1);
+  });
+
   it("an invitation is accepted by someone exactly when it has an acceptance time", async () => {
     const u = await user("inv@example.org");
     const m = (await db.insertInto("manuscript").values({ title: "T", created_by: u }).returning("id").executeTakeFirstOrThrow()).id;
