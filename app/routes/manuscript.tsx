@@ -14,6 +14,8 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 }
 
 const STEPS = ["Data", "Predictions", "Composition", "Seal", "Sign-off", "Export"] as const;
+// Figures (composition, sealing, sign-off, export) are not built yet; the page says so.
+const AVAILABLE = new Set<string>(["Data", "Predictions"]);
 
 export default function ManuscriptOverview() {
   const { manuscript, role, can, members } = useLoaderData<typeof loader>();
@@ -28,9 +30,12 @@ export default function ManuscriptOverview() {
           <h2 id="work-title" className="text-xl">How a figure gets to the journal</h2>
           <ol className="mt-4 flex flex-wrap gap-px border border-rule bg-rule text-sm">
             {STEPS.map((s, i) => (
-              <li key={s} className="flex-1 bg-sheet px-3 py-2"><span className="font-mono text-ink-faint">{i + 1}</span> {s}</li>
+              <li key={s} className={`flex-1 bg-sheet px-3 py-2 ${AVAILABLE.has(s) ? "" : "text-ink-faint"}`}>
+                <span className="font-mono text-ink-faint">{i + 1}</span> {s}{AVAILABLE.has(s) ? null : <span className="sr-only"> (not available yet)</span>}
+              </li>
             ))}
           </ol>
+          <p className="mt-2 text-xs text-ink-faint">Steps 3–6 (figures, sealed versions, sign-off and export) are not available in this release yet.</p>
           <p className="mt-4 text-sm text-ink-soft">
             Start with the measured data: <Link className="underline underline-offset-4" to={`/manuscripts/${manuscript.id}/datasets`}>datasets of this manuscript</Link>.
             {" "}Theory curves come from the <Link className="underline underline-offset-4" to="/predictions">predictions</Link> engine.
