@@ -19,6 +19,18 @@ export function blobStore(): BlobStore {
   return (store ??= createBlobStoreFromEnv());
 }
 
+const ABANDONED_AFTER_MS = 24 * 3600_000;
+let lastSweep = 0;
+/**
+ * Files left waiting for a column mapping for a day are abandoned; swept at most once an hour,
+ * on the next upload, so that a running server does not fill its disk between restarts.
+ */
+function sweepAbandoned(): void {
+  if (Date.now() - lastSweep < 3600_000) return;
+  lastSweep = Date.now();
+  blobStore().cleanupTemp(ABANDONED_AFTER_MS).catch((e: unknown) => console.error("[steradian] sweeping abandoned uploads failed:", e));
+}
+
 export type UploadOutcome =
   | { kind: "created" | "identical"; revision: { id: string; number: number; contentHash: string; rowCount: number } }
   | { kind: "problems"; problems: DatasetProblem[]; problemCount: number }
@@ -35,6 +47,7 @@ export type ReceivedForm =
  * to disk, so the byte limit also bounds the memory of one upload.
  */
 export async function receiveUploadForm(request: Request): Promise<ReceivedForm> {
+  sweepAbandoned();
   const receiver = createUploadReceiver(blobStore(), { maxBytes: env.UPLOAD_MAX_BYTES, fieldNames: ["file"] });
   try {
     const fields = await parseFormData(request, { maxFileSize: env.UPLOAD_MAX_BYTES, maxFiles: 1 }, receiver.handler);
