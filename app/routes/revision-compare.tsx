@@ -2,13 +2,14 @@ import { Link, useLoaderData } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/revision-compare";
 import { accessDataset, parseRevisionNumber } from "~/.server/dataset-access.server";
-import { findRevision, revisionRows } from "~/.server/dataset-repository.server";
+import { findRevision } from "~/.server/dataset-repository.server";
+import { diffRevisionsInDatabase } from "~/.server/revision-diff.server";
 import { db } from "~/.server/db.server";
 import { notFound } from "~/.server/guards.server";
 import { loadManuscriptPage } from "~/.server/manuscript-context.server";
 import { ManuscriptNav } from "~/components/manuscript-nav";
 import { displayScale } from "~/components/quantity-labels";
-import { diffRevisions, type RevisionRow } from "~/datasets/diff-revisions";
+import type { RevisionRow } from "~/datasets/diff-revisions";
 
 const Query = z.object({ from: z.string().default(""), to: z.string().default("") });
 const LISTED = 500;
@@ -19,7 +20,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const q = Query.parse(Object.fromEntries(new URL(request.url).searchParams));
   const [a, b] = await Promise.all([findRevision(db, dataset.id, parseRevisionNumber("page", q.from)), findRevision(db, dataset.id, parseRevisionNumber("page", q.to))]);
   if (!a || !b) notFound("page", "One of the revisions");
-  const diff = diffRevisions({ label: `r${a.number}`, rows: await revisionRows(db, a.id) }, { label: `r${b.number}`, rows: await revisionRows(db, b.id) }, { maxListed: LISTED });
+  const diff = await diffRevisionsInDatabase(db, { id: a.id, label: `r${a.number}` }, { id: b.id, label: `r${b.number}` }, LISTED);
   return { ...page, dataset: { id: dataset.id, name: dataset.name, quantity: dataset.quantity }, from: a.number, to: b.number, diff };
 }
 
