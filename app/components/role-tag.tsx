@@ -1,12 +1,13 @@
 import { type MemberRole, ROLE_LABELS } from "~/permissions";
+import { Shape, type ShapeName } from "./ui/shape";
 
 // Each role has its own shape as well as its word, so nothing depends on colour.
-const SHAPES: Record<MemberRole, string> = { corresponding: "■", coauthor: "●", contributor: "▲", observer: "○" };
+const SHAPES: Record<MemberRole, ShapeName> = { corresponding: "square", coauthor: "disc", contributor: "triangle", observer: "ring" };
 
 export function RoleTag({ role }: { role: MemberRole }) {
   return (
     <span className="inline-flex items-center gap-1.5 whitespace-nowrap text-sm text-ink-soft">
-      <span aria-hidden="true" className="text-xs">{SHAPES[role]}</span>
+      <Shape name={SHAPES[role]} />
       {ROLE_LABELS[role]}
     </span>
   );

@@ -8,6 +8,7 @@ import { requireSite, requireUser } from "~/.server/guards.server";
 import { clientIp } from "~/.server/sign-in.server";
 import { listUsers } from "~/.server/users.server";
 import { Notice } from "~/components/ui/notice";
+import { Shape } from "~/components/ui/shape";
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
@@ -50,7 +51,7 @@ export default function AdminAccounts() {
             <tr key={a.id}>
               <td className="py-2">{a.name}{a.is_demo ? <span className="text-ink-faint"> (demo)</span> : null}</td>
               <td>{a.email}</td>
-              <td>{{ active: "● active", pending: "◌ awaiting confirmation", disabled: "✕ disabled" }[a.status]}</td>
+              <td className="whitespace-nowrap"><Shape name={({ active: "disc", pending: "dotted-ring", disabled: "cross" } as const)[a.status]} /> {{ active: "active", pending: "awaiting confirmation", disabled: "disabled" }[a.status]}</td>
               <td>{a.site_role === "admin" ? "site admin" : "member"}</td>
               <td className="num">{new Date(a.created_at).toISOString().slice(0, 10)}</td>
               <td className="flex justify-end gap-3 py-2">

@@ -8,6 +8,7 @@ import { ROW_SORTS } from "~/revision-row-sorts";
 import { db } from "~/.server/db.server";
 import { loadManuscriptPage } from "~/.server/manuscript-context.server";
 import { Fingerprint } from "~/components/fingerprint";
+import { Shape } from "~/components/ui/shape";
 import { ManuscriptNav } from "~/components/manuscript-nav";
 import { describeQuantity, displayScale } from "~/components/quantity-labels";
 
@@ -78,7 +79,7 @@ export default function RevisionPage() {
                 <th key={h.id} className="py-2 pr-4 font-medium" aria-sort={h.column.getIsSorted() ? (h.column.getIsSorted() === "desc" ? "descending" : "ascending") : undefined}>
                   {h.column.getCanSort() ? (
                     <button type="button" onClick={h.column.getToggleSortingHandler()} className="hover:text-madder">
-                      {flexRender(h.column.columnDef.header, h.getContext())} {h.column.getIsSorted() === "asc" ? "▲" : h.column.getIsSorted() === "desc" ? "▼" : "△"}
+                      {flexRender(h.column.columnDef.header, h.getContext())} <Shape name={h.column.getIsSorted() === "asc" ? "up" : h.column.getIsSorted() === "desc" ? "down" : "up-down"} />
                     </button>
                   ) : flexRender(h.column.columnDef.header, h.getContext())}
                 </th>
