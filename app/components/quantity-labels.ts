@@ -10,6 +10,9 @@ export function describeQuantity(q: unknown): string {
   return `${Y_LABELS[y.kind]} [${y.unit.replace("ub", "µb")}] against ${X_LABELS[x.kind]}${xUnit ? ` [${xUnit}]` : ""}`;
 }
 
+/** Stored x is in the normal form's canonical unit (docs/decisions/0004). */
+const CANONICAL_X_LABEL: Record<Q["x"]["kind"], string> = { theta_lab_deg: "°", theta_cm_deg: "°", cos_theta: "", t: "GeV²", sqrt_s: "GeV", beam_energy: "GeV", beam_kinetic: "GeV" };
+
 /**
  * Revisions store y in the engine's natural units (GeV⁻², per sr or per GeV² where it applies);
  * tables show it in the unit the dataset declares.
@@ -19,6 +22,6 @@ export function displayScale(q: unknown): { yFactor: number; yUnit: string; xUni
   return {
     yFactor: 1 / parseUnit(y.unit).toNatural,
     yUnit: y.unit.replace("ub", "µb"),
-    xUnit: x.kind.startsWith("theta") ? "°" : x.kind === "cos_theta" ? "" : x.kind === "t" ? "GeV²" : "GeV",
+    xUnit: CANONICAL_X_LABEL[x.kind],
   };
 }

@@ -119,7 +119,10 @@ describe("datasets API", () => {
   });
 
   it("pages the rows, and hands back the original file byte for byte", async () => {
-    const rows = (await (await c.get(`${base()}/revisions/1/rows?page=2&pageSize=2`)).json()) as { totalRows: number; totalPages: number; rows: Array<{ row: number; x: number }> };
+    const rows = (await (await c.get(`${base()}/revisions/1/rows?page=2&pageSize=2`)).json()) as { units: unknown; totalRows: number; totalPages: number; rows: Array<{ row: number; x: number; y: number }> };
+    expect(rows.units).toEqual({ x: "deg", y: "GeV^-2/sr" });
+    // 0.81 µb/sr in GeV⁻²/sr: 0.81e-3 mb / 0.3893793721 mb GeV² (CODATA 2018 (ħc)²).
+    expect(rows.rows[1].y).toBeCloseTo(0.81e-3 / 0.3893793721, 12);
     expect(rows.totalRows).toBe(5);
     expect(rows.totalPages).toBe(3);
     expect(rows.rows.map((r) => [r.row, r.x])).toEqual([[3, 60], [4, 75]]);

@@ -4,6 +4,8 @@ import { apiHandler, methodNotAllowed } from "~/.server/api-handler.server";
 import { accessRevision } from "~/.server/dataset-access.server";
 import { revisionRowsPage } from "~/.server/dataset-repository.server";
 import { ROW_SORTS } from "~/revision-row-sorts";
+import { quantitySchema } from "~/datasets/quantity";
+import { resolveQuantityScales } from "~/datasets/quantity-scales";
 import { db } from "~/.server/db.server";
 import { apiError } from "~/.server/guards.server";
 
@@ -22,11 +24,11 @@ export const loader = apiHandler(async ({ request, params }: Route.LoaderArgs) =
   if (!q.success) return apiError(422, "invalid-query", q.error.issues[0].message, { field: q.error.issues[0].path.join(".") });
   const { page, pageSize, sort, dir } = q.data;
   const rows = await revisionRowsPage(db, revision.id, { offset: (page - 1) * pageSize, limit: pageSize, sort, dir });
-  const q2 = revision.quantity as { x: { kind: string }; y: { kind: keyof typeof NATURAL_Y } };
+  const quantity = quantitySchema.parse(revision.quantity);
   return Response.json({
     revision: `r${revision.number}`,
     // Rows are the revision's normal form, in canonical units.
-    units: { x: q2.x.kind.startsWith("theta") ? "deg" : q2.x.kind === "cos_theta" ? "1" : q2.x.kind === "t" ? "GeV^2" : "GeV", y: NATURAL_Y[q2.y.kind] },
+    units: { x: resolveQuantityScales(quantity).xCanonicalUnit, y: NATURAL_Y[quantity.y.kind] },
     page, pageSize, totalRows: revision.row_count, totalPages: Math.ceil(revision.row_count / pageSize),
     rows: rows.map((r) => ({ row: r.idx + 1, x: r.x, xLow: r.x_low, xHigh: r.x_high, y: r.y, statMinus: r.stat_minus, statPlus: r.stat_plus, systMinus: r.syst_minus, systPlus: r.syst_plus })),
   });
