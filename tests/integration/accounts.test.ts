@@ -120,11 +120,15 @@ describe("sign-up with e-mail confirmation", () => {
     const mail = await waitForMail(email, (m) => m.subject.includes("Confirm"));
     expect(mail.html).toContain("<a href=");
     const link = new URL(linkIn(mail, "/confirm-email/"));
-    const confirm = await new Client().get(link.pathname);
+    // Opening the link (as a mail scanner would) changes nothing; the button does.
+    expect(await (await new Client().get(link.pathname)).text()).toContain("Confirm my address");
+    expect((await signInStatus(email, "a long new password")).status).toBe(401);
+    const confirm = await new Client().post(link.pathname, {});
     expect(confirm.status).toBe(302);
     expect((await signInStatus(email, "a long new password")).status).toBe(302);
     // The link works once.
-    expect((await new Client().get(link.pathname)).status).toBe(200);
+    expect(await (await new Client().get(link.pathname)).text()).toContain("This link no longer works");
+    expect(await (await new Client().post(link.pathname, {})).text()).toContain("This link no longer works");
     const row = await db.selectFrom("app_user").select(["status", "password_hash"]).where("email", "=", email).executeTakeFirstOrThrow();
     expect(row.status).toBe("active");
     expect(row.password_hash).toMatch(/^\$2[aby]\$12\$/); // bcrypt, cost 12
