@@ -65,7 +65,6 @@ function xQuantity(kind: (typeof X_KINDS)[number], unit: string | undefined): z.
   return { kind };
 }
 
-export const X_UNIT_CHOICES = { t: T_UNITS, energy: ENERGY_UNITS } as const;
 
 /** The column mapping from the HTML mapping form (flat fields; empty means not mapped). */
 export const MappingForm = z

@@ -1,9 +1,7 @@
 import { pipeline } from "node:stream/promises";
 import { Readable } from "node:stream";
-import { sql } from "kysely";
 import { from as copyFrom } from "pg-copy-streams";
 import type { ColumnMapping } from "~/datasets/column-mapping";
-import type { RevisionRow } from "~/datasets/diff-revisions";
 import type { QuantityDescription } from "~/datasets/quantity";
 import type { IngestColumns } from "./datasets/ingest-csv.server";
 import { type Db, pool } from "./db.server";
@@ -82,10 +80,6 @@ export async function revisionRowsPage(db: Db, revisionId: string, page: { offse
     .execute();
 }
 
-export async function revisionRows(db: Db, revisionId: string): Promise<RevisionRow[]> {
-  const rows = await db.selectFrom("dataset_row").selectAll().where("revision_id", "=", revisionId).orderBy("idx").execute();
-  return rows.map((r) => ({ x: r.x, xLow: r.x_low, xHigh: r.x_high, y: r.y, statMinus: r.stat_minus, statPlus: r.stat_plus, systMinus: r.syst_minus, systPlus: r.syst_plus }));
-}
 
 export type SaveRevisionResult =
   | { created: true; revision: { id: string; number: number; contentHash: string; rowCount: number } }
@@ -178,7 +172,3 @@ function* copyBinary(revisionId: string, n: number, c: IngestColumns): Generator
   yield trailer;
 }
 
-export async function revisionCount(db: Db, datasetId: string): Promise<number> {
-  const r = await db.selectFrom("dataset_revision").select(sql<number>`count(*)::int`.as("n")).where("dataset_id", "=", datasetId).executeTakeFirstOrThrow();
-  return r.n;
-}

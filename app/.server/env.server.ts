@@ -47,7 +47,3 @@ function parseEnv(): Env {
 
 export const env: Env = parseEnv();
 
-/** The only settings that reach the browser. */
-export function publicEnv() {
-  return { appUrl: env.APP_URL, nodeEnv: env.NODE_ENV };
-}
