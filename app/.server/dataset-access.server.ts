@@ -5,6 +5,7 @@ import { recordAudit } from "./audit.server";
 import { findDataset, findRevision } from "./dataset-repository.server";
 import { db } from "./db.server";
 import { type Mode, notFound, requireApiUser, requirePermission, requireUser } from "./guards.server";
+import { loadManuscriptPage } from "./manuscript-context.server";
 import { blobStore } from "./revision-upload.server";
 import type { SessionUser } from "./users.server";
 
@@ -52,4 +53,21 @@ export async function rawFileResponse(args: { user: SessionUser; manuscriptId: s
 /** Refusals before the file is even read (over the byte limit, not multipart, no file) are audited too. */
 export async function auditRefusedUpload(args: { userId: string; manuscriptId: string; datasetId: string; ip: string | null; reason: string }) {
   await recordAudit(db, { action: "revision-rejected", actorId: args.userId, manuscriptId: args.manuscriptId, ip: args.ip, detail: { datasetId: args.datasetId, reason: args.reason } });
+}
+
+/** A dataset page's loader context: the manuscript page context and the dataset, authorised once. */
+export async function loadDatasetPage(request: Request, params: { manuscriptId: string; datasetId: string }, action: ManuscriptAction = "read:dataset") {
+  const page = await loadManuscriptPage(request, params.manuscriptId, action);
+  const dataset = isUuid(params.datasetId) ? await findDataset(db, params.manuscriptId, params.datasetId) : undefined;
+  if (!dataset) notFound("page", "The dataset");
+  return { ...page, dataset };
+}
+
+/** The same for a revision's pages. */
+export async function loadRevisionPage(request: Request, params: { manuscriptId: string; datasetId: string; number: string }) {
+  const page = await loadDatasetPage(request, params);
+  const number = parseRevisionNumber("page", params.number);
+  const revision = await findRevision(db, page.dataset.id, number);
+  if (!revision) notFound("page", `Revision r${number}`);
+  return { ...page, revision };
 }

@@ -1,6 +1,6 @@
 import { Form, Link, data, redirect, useActionData, useLoaderData, useNavigation, useSearchParams } from "react-router";
 import type { Route } from "./+types/dataset";
-import { accessDataset, auditRefusedUpload } from "~/.server/dataset-access.server";
+import { accessDataset, auditRefusedUpload, loadDatasetPage } from "~/.server/dataset-access.server";
 import { MappingForm } from "~/.server/dataset-input.server";
 import { limitMessage } from "~/.server/dataset-json.server";
 import { listRevisions } from "~/.server/dataset-repository.server";
@@ -8,7 +8,6 @@ import { previewCsv } from "~/.server/datasets/preview-csv.server";
 import { db } from "~/.server/db.server";
 import { env } from "~/.server/env.server";
 import { fieldErrorsOf } from "~/.server/forms.server";
-import { loadManuscriptPage } from "~/.server/manuscript-context.server";
 import { type UploadOutcome, describePending, ingestUpload, pendingId, receiveUploadForm } from "~/.server/revision-upload.server";
 import { pendingIdOf, signPending, verifyPending } from "~/.server/pending-upload.server";
 import { clientIp } from "~/.server/sign-in.server";
@@ -23,8 +22,8 @@ import { columnMappingSchema } from "~/datasets/column-mapping";
 import { quantitySchema } from "~/datasets/quantity";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
-  const page = await loadManuscriptPage(request, params.manuscriptId, "read:dataset");
-  const { dataset } = await accessDataset("page", request, params.manuscriptId, params.datasetId, "read:dataset");
+  const page = await loadDatasetPage(request, params);
+  const { dataset } = page;
   const revisions = await listRevisions(db, dataset.id);
   const url = new URL(request.url);
   const pending = url.searchParams.get("pending");

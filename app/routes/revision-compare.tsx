@@ -1,12 +1,11 @@
 import { Link, useLoaderData } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/revision-compare";
-import { accessDataset, parseRevisionNumber } from "~/.server/dataset-access.server";
+import { loadDatasetPage, parseRevisionNumber } from "~/.server/dataset-access.server";
 import { findRevision } from "~/.server/dataset-repository.server";
 import { diffRevisionsInDatabase } from "~/.server/revision-diff.server";
 import { db } from "~/.server/db.server";
 import { notFound } from "~/.server/guards.server";
-import { loadManuscriptPage } from "~/.server/manuscript-context.server";
 import { ManuscriptNav } from "~/components/manuscript-nav";
 import { displayScale } from "~/components/quantity-labels";
 import type { RevisionRow } from "~/datasets/diff-revisions";
@@ -15,8 +14,8 @@ const Query = z.object({ from: z.string().default(""), to: z.string().default(""
 const LISTED = 500;
 
 export async function loader({ request, params }: Route.LoaderArgs) {
-  const page = await loadManuscriptPage(request, params.manuscriptId, "read:dataset");
-  const { dataset } = await accessDataset("page", request, params.manuscriptId, params.datasetId, "read:dataset");
+  const page = await loadDatasetPage(request, params);
+  const { dataset } = page;
   const q = Query.parse(Object.fromEntries(new URL(request.url).searchParams));
   const [a, b] = await Promise.all([findRevision(db, dataset.id, parseRevisionNumber("page", q.from)), findRevision(db, dataset.id, parseRevisionNumber("page", q.to))]);
   if (!a || !b) notFound("page", "One of the revisions");

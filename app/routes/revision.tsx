@@ -2,11 +2,10 @@ import { type ColumnDef, type SortingState, flexRender, getCoreRowModel, useReac
 import { Link, useLoaderData, useNavigate, useSearchParams } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/revision";
-import { accessRevision } from "~/.server/dataset-access.server";
+import { loadRevisionPage } from "~/.server/dataset-access.server";
 import { revisionRowsPage } from "~/.server/dataset-repository.server";
 import { ROW_SORTS } from "~/revision-row-sorts";
 import { db } from "~/.server/db.server";
-import { loadManuscriptPage } from "~/.server/manuscript-context.server";
 import { Fingerprint } from "~/components/fingerprint";
 import { Shape } from "~/components/ui/shape";
 import { ManuscriptNav } from "~/components/manuscript-nav";
@@ -20,8 +19,8 @@ const Query = z.object({
 });
 
 export async function loader({ request, params }: Route.LoaderArgs) {
-  const page = await loadManuscriptPage(request, params.manuscriptId, "read:dataset");
-  const { dataset, revision } = await accessRevision("page", request, params);
+  const page = await loadRevisionPage(request, params);
+  const { dataset, revision } = page;
   const q = Query.parse(Object.fromEntries(new URL(request.url).searchParams));
   const pages = Math.max(1, Math.ceil(revision.row_count / PAGE_SIZE));
   const current = Math.min(q.page, pages);
