@@ -28,3 +28,12 @@ export function methodNotAllowed(allowed: string) {
     return apiError(405, "method-not-allowed", `This resource takes ${allowed} only.`);
   });
 }
+
+/** The request's JSON body; anything else is thrown as a 422 that apiHandler passes on. */
+export async function readJsonBody(request: Request, code = "invalid-json"): Promise<unknown> {
+  try {
+    return await request.json();
+  } catch {
+    throw apiError(422, code, "The request body is not valid JSON.", { field: "" });
+  }
+}

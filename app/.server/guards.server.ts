@@ -11,9 +11,16 @@ export function apiError(status: number, code: string, message: string, extra: R
   return Response.json({ error: { code, message, ...extra } }, { status });
 }
 
-export async function optionalUser(request: Request): Promise<SessionUser | null> {
-  const id = await sessionUserId(request);
-  return id ? findActiveUser(db, id) : null;
+// The root loader and the page's own loader both ask who is signed in; one look-up a request.
+const seen = new WeakMap<Request, Promise<SessionUser | null>>();
+
+export function optionalUser(request: Request): Promise<SessionUser | null> {
+  let user = seen.get(request);
+  if (!user) {
+    user = sessionUserId(request).then((id) => (id ? findActiveUser(db, id) : null));
+    seen.set(request, user);
+  }
+  return user;
 }
 
 /** Page guard: no valid session (none, tampered, expired, account disabled) → sign-in page. */

@@ -1,37 +1,37 @@
 import { createHmac, timingSafeEqual } from "node:crypto";
 import { env } from "./env.server";
+import { statPending } from "./revision-upload.server";
 
 /**
- * A file waiting for its column mapping is named in the URL by its temporary file and a MAC
- * over that name, the uploader, the dataset, the content hash and the file name: another user,
- * another dataset, a swapped file or a forged file name does not verify.
+ * A file waiting for its column mapping is named in the URL by a token: its temporary file,
+ * its content hash (known when it was received, so it is never read again to be hashed), and
+ * a MAC over those, the uploader, the dataset and the file name. Another user, another
+ * dataset or a forged file name does not verify.
  */
 interface PendingClaim {
-  id: string;
   userId: string;
   datasetId: string;
-  sha256: string;
   fileName: string;
 }
 
-function mac(c: PendingClaim): string {
-  return createHmac("sha256", env.SESSION_SECRET).update(["pending-upload", c.id, c.userId, c.datasetId, c.sha256, c.fileName].join("\n")).digest("base64url");
+function mac(id: string, sha256: string, c: PendingClaim): string {
+  return createHmac("sha256", env.SESSION_SECRET).update(["pending-upload", id, c.userId, c.datasetId, sha256, c.fileName].join("\n")).digest("base64url");
 }
 
-export function signPending(c: PendingClaim): string {
-  return `${c.id}.${mac(c)}`;
+export function signPending(file: { id: string; sha256: string }, c: PendingClaim): string {
+  return `${file.id}.${file.sha256}.${mac(file.id, file.sha256, c)}`;
 }
 
-/** The temporary file's id if the token was made for exactly this claim, else null. */
-export function pendingIdOf(token: string): string | null {
-  const dot = token.lastIndexOf(".");
-  return dot > 0 ? token.slice(0, dot) : null;
-}
-
-export function verifyPending(token: string, c: PendingClaim): boolean {
-  const dot = token.lastIndexOf(".");
-  if (dot <= 0 || token.slice(0, dot) !== c.id) return false;
-  const given = Buffer.from(token.slice(dot + 1));
-  const want = Buffer.from(mac(c));
-  return given.length === want.length && timingSafeEqual(given, want);
+/** The waiting file if the token was made for exactly this claim and the file is still there. */
+export async function openPending(token: string, c: PendingClaim): Promise<{ tempPath: string; sha256: string; bytes: number } | null> {
+  const parts = token.split(".");
+  if (parts.length !== 4) return null;
+  const [name, ext, sha256, given] = parts;
+  const id = `${name}.${ext}`;
+  if (!/^[0-9a-f]{64}$/.test(sha256)) return null;
+  const want = Buffer.from(mac(id, sha256, c));
+  const got = Buffer.from(given);
+  if (got.length !== want.length || !timingSafeEqual(got, want)) return null;
+  const file = await statPending(id);
+  return file ? { ...file, sha256 } : null;
 }

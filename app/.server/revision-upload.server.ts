@@ -1,5 +1,4 @@
-import { createHash } from "node:crypto";
-import { createReadStream } from "node:fs";
+import { stat } from "node:fs/promises";
 import path from "node:path";
 import { FormDataParseError, parseFormData } from "@mjackson/form-data-parser";
 import type { ColumnMapping } from "~/datasets/column-mapping";
@@ -118,20 +117,14 @@ export async function ingestUpload(args: {
   return { kind: saved.created ? "created" : "identical", revision };
 }
 
-/** A pending upload's file, its hash and size; null if it is gone (used, or cleaned at restart). */
-export async function describePending(id: string): Promise<{ tempPath: string; sha256: string; bytes: number } | null> {
+/** A pending upload's file and size; null if it is gone (used, or cleaned up). */
+export async function statPending(id: string): Promise<{ tempPath: string; bytes: number } | null> {
   const tempPath = pendingPath(id);
   if (!tempPath) return null;
-  const hash = createHash("sha256");
-  let bytes = 0;
   try {
-    for await (const chunk of createReadStream(tempPath)) {
-      hash.update(chunk as Buffer);
-      bytes += (chunk as Buffer).byteLength;
-    }
+    return { tempPath, bytes: (await stat(tempPath)).size };
   } catch (e) {
     if ((e as NodeJS.ErrnoException).code === "ENOENT") return null;
     throw e;
   }
-  return { tempPath, sha256: hash.digest("hex"), bytes };
 }

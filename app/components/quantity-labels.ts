@@ -25,3 +25,8 @@ export function displayScale(q: unknown): { yFactor: number; yUnit: string; xUni
     xUnit: CANONICAL_X_LABEL[x.kind],
   };
 }
+
+/** A stored value as tables show it: 8 significant digits, "—" where there is none. */
+export function formatValue(v: number | null): string {
+  return v == null ? "—" : Number(v.toPrecision(8)).toString();
+}

@@ -8,8 +8,8 @@ import { previewCsv } from "~/.server/datasets/preview-csv.server";
 import { db } from "~/.server/db.server";
 import { env } from "~/.server/env.server";
 import { fieldErrorsOf } from "~/.server/forms.server";
-import { type UploadOutcome, describePending, ingestUpload, pendingId, receiveUploadForm } from "~/.server/revision-upload.server";
-import { pendingIdOf, signPending, verifyPending } from "~/.server/pending-upload.server";
+import { type UploadOutcome, ingestUpload, pendingId, receiveUploadForm } from "~/.server/revision-upload.server";
+import { openPending, signPending } from "~/.server/pending-upload.server";
 import { clientIp } from "~/.server/sign-in.server";
 import { Fingerprint } from "~/components/fingerprint";
 import { ManuscriptNav } from "~/components/manuscript-nav";
@@ -67,7 +67,7 @@ export async function action({ request, params, context }: Route.ActionArgs) {
       return answer(outcome, base);
     }
     // Kept in temporary storage until its columns are mapped; cleaned at the next start if abandoned.
-    const token = signPending({ id: pendingId(upload), userId: user.id, datasetId: dataset.id, sha256: upload.sha256, fileName: upload.fileName });
+    const token = signPending({ id: pendingId(upload), sha256: upload.sha256 }, { userId: user.id, datasetId: dataset.id, fileName: upload.fileName });
     throw redirect(`${base}?pending=${encodeURIComponent(token)}&file=${encodeURIComponent(upload.fileName)}`);
   }
 
@@ -79,13 +79,6 @@ export async function action({ request, params, context }: Route.ActionArgs) {
   if (!mapping.success) return data<ActionResult>({ kind: "error", message: "Some columns need attention.", fieldErrors: fieldErrorsOf(mapping.error) }, { status: 422 });
   const outcome = await ingestUpload({ ...common, tempPath: pending.tempPath, raw: { sha256: pending.sha256, bytes: pending.bytes, fileName }, mapping: mapping.data });
   return answer(outcome, base);
-}
-
-/** The waiting file, if the token was made for this user, dataset and file; else null. */
-async function openPending(token: string, claim: { userId: string; datasetId: string; fileName: string }) {
-  const id = pendingIdOf(token);
-  const file = id ? await describePending(id) : null;
-  return file && verifyPending(token, { id: id!, sha256: file.sha256, ...claim }) ? file : null;
 }
 
 function answer(o: UploadOutcome, base: string) {

@@ -7,7 +7,7 @@ import { diffRevisionsInDatabase } from "~/.server/revision-diff.server";
 import { db } from "~/.server/db.server";
 import { notFound } from "~/.server/guards.server";
 import { ManuscriptNav } from "~/components/manuscript-nav";
-import { displayScale } from "~/components/quantity-labels";
+import { displayScale, formatValue } from "~/components/quantity-labels";
 import type { RevisionRow } from "~/datasets/diff-revisions";
 
 const Query = z.object({ from: z.string().default(""), to: z.string().default("") });
@@ -24,7 +24,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 }
 
 const FIELD_LABELS: Record<string, string> = { x: "x", xLow: "bin low", xHigh: "bin high", y: "y", statMinus: "stat −", statPlus: "stat +", systMinus: "syst −", systPlus: "syst +" };
-const fmt = (v: number | null) => (v == null ? "—" : Number(v.toPrecision(8)).toString());
+const fmt = formatValue;
 type Scale = ReturnType<typeof displayScale>;
 const rowText = (r: RevisionRow, s: Scale) => `x = ${fmt(r.x)}${s.xUnit}${r.xLow != null ? ` [${fmt(r.xLow)}, ${fmt(r.xHigh)}]` : ""}, y = ${fmt(r.y * s.yFactor)} ${s.yUnit}`;
 const fieldValue = (field: string, v: number | null, s: Scale) => fmt(v == null || ["x", "xLow", "xHigh"].includes(field) ? v : v * s.yFactor);

@@ -9,7 +9,7 @@ import { db } from "~/.server/db.server";
 import { Fingerprint } from "~/components/fingerprint";
 import { Shape } from "~/components/ui/shape";
 import { ManuscriptNav } from "~/components/manuscript-nav";
-import { describeQuantity, displayScale } from "~/components/quantity-labels";
+import { describeQuantity, displayScale, formatValue } from "~/components/quantity-labels";
 
 const PAGE_SIZE = 50;
 const Query = z.object({
@@ -30,7 +30,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 
 type Row = Awaited<ReturnType<typeof loader>>["rows"][number];
 
-const fmt = (v: number | null) => (v == null ? "—" : Number(v.toPrecision(8)).toString());
+const fmt = formatValue;
 
 export default function RevisionPage() {
   const { manuscript, role, can, dataset, revision, rows, query, pages } = useLoaderData<typeof loader>();

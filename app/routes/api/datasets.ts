@@ -1,5 +1,5 @@
 import type { Route } from "./+types/datasets";
-import { apiHandler } from "~/.server/api-handler.server";
+import { apiHandler, readJsonBody } from "~/.server/api-handler.server";
 import { DatasetNameTaken, createDatasetAudited } from "~/.server/dataset-create.server";
 import { DatasetInput } from "~/.server/dataset-input.server";
 import { datasetJson } from "~/.server/dataset-json.server";
@@ -19,12 +19,7 @@ export const action = apiHandler(async ({ request, params, context }: Route.Acti
   const user = await requireApiUser(request);
   await requirePermission("api", user, params.manuscriptId, "create:dataset");
   if (request.method !== "POST") return apiError(405, "method-not-allowed", "Create a dataset with POST.");
-  let body: unknown;
-  try {
-    body = await request.json();
-  } catch {
-    return apiError(422, "invalid-json", "The request body is not valid JSON.", { field: "" });
-  }
+  const body = await readJsonBody(request);
   const parsed = DatasetInput.safeParse(body);
   if (!parsed.success) {
     const issue = parsed.error.issues[0];

@@ -1,5 +1,5 @@
 import type { Route } from "./+types/predictions";
-import { apiHandler } from "~/.server/api-handler.server";
+import { apiHandler, readJsonBody } from "~/.server/api-handler.server";
 import { apiError, requireApiUser } from "~/.server/guards.server";
 import { EngineInputError, runPrediction } from "~/engine";
 
@@ -11,13 +11,8 @@ export const loader = apiHandler(async ({ request }: Route.LoaderArgs) => {
 export const action = apiHandler(async ({ request }: Route.ActionArgs) => {
   await requireApiUser(request);
   if (request.method !== "POST") return apiError(405, "method-not-allowed", "Send the prediction request as JSON with POST.");
-  let body: unknown;
-  try {
-    body = await request.json();
-  } catch {
-    // The same code as the command line's for the same mistake.
-    return apiError(422, "malformed_json", "The request body is not valid JSON.", { field: "" });
-  }
+  // The same code as the command line's for the same mistake.
+  const body = await readJsonBody(request, "malformed_json");
   try {
     return Response.json(runPrediction(body));
   } catch (e) {
