@@ -15,3 +15,6 @@ export { compareToData, compareWithNormalisation, type Comparison, type Normalis
 export { chiSquarePValue } from "./statistics/chi-square-p-value";
 export { envelopeBand, type Band } from "./statistics/envelope-band";
 export { uncertaintyTowards, type MeasuredPoint, type Uncertainty } from "./statistics/measured-point";
+export { angleConverter, type AngleConverter, type AngleCoordinate, type DifferentialCoordinate, type ReactionAtEnergy } from "./angle-conversion";
+export type { DifferentialObservable } from "./observables";
+export type { EnergyKind } from "./mandelstam-s-from-energy";
