@@ -137,6 +137,19 @@ export interface DatasetRowTable {
   syst_plus: number | null;
 }
 
+export interface FigureTable {
+  id: Generated<string>;
+  manuscript_id: string;
+  title: string;
+  draft: Json;
+  draft_revision: Generated<number>;
+  is_demo: Generated<boolean>;
+  created_by: string;
+  created_at: GeneratedTimestamp;
+  updated_by: string;
+  updated_at: GeneratedTimestamp;
+}
+
 export interface Database {
   app_user: AppUserTable;
   manuscript: ManuscriptTable;
@@ -149,6 +162,7 @@ export interface Database {
   dataset: DatasetTable;
   dataset_revision: DatasetRevisionTable;
   dataset_row: DatasetRowTable;
+  figure: FigureTable;
 }
 
 export type AppUser = Selectable<AppUserTable>;
@@ -162,3 +176,4 @@ export type AuditEvent = Selectable<AuditEventTable>;
 export type Dataset = Selectable<DatasetTable>;
 export type DatasetRevision = Selectable<DatasetRevisionTable>;
 export type DatasetRow = Selectable<DatasetRowTable>;
+export type Figure = Selectable<FigureTable>;
