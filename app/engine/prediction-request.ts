@@ -151,8 +151,8 @@ function parseFormFactor(v: unknown, definition: ProcessDefinition): FormFactorS
 
 /**
  * Validates a prediction request (the prediction contract of the README plus the optional
- * fields of docs/decisions/0003-engine-conventions.md) and fills in the defaults. Throws EngineInputError naming the field.
- * Physics checks that need kinematics (thresholds, divergent angles, t ranges) are done when
+ * fields of docs/decisions/0003-engine-conventions.md) and fills in the defaults. Throws
+ * EngineInputError naming the field. Physics checks that need kinematics (thresholds, divergent angles, t ranges) are done when
  * the prediction is computed.
  */
 export function validatePredictionRequest(request: unknown): ValidatedRequest {

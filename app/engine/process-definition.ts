@@ -14,7 +14,7 @@ export type ProcessId =
 
 export type Frame = "lab" | "cm";
 
-/** What the page prints beside a prediction: the conventions of DESIGN.md for one process. */
+/** What the page prints beside a prediction: the conventions of one process (docs/decisions/0003-engine-conventions.md). */
 export interface ProcessInfo {
   readonly id: ProcessId;
   /** The reaction in Unicode, e.g. "φ⁺φ⁻ → γγ". */

@@ -140,7 +140,9 @@ function finite(values: number[], field: (i: number) => string): number[] {
  * docs/decisions/0003-engine-conventions.md): validates the request, computes the values in the
  * requested unit and returns them with the engine version and the parameters' SHA-256
  * (docs/decisions/0007-parameters-hash-number-lists.md). Arrays of angle points go through the
- * process's own loop (`evaluateAngles`); bin means are σ(bin)/ΔX (docs/decisions/0006-bin-means.md). Pure and deterministic: the same request gives bit-identical output.
+ * process's own loop (`evaluateAngles`); bin means are σ(bin)/ΔX
+ * (docs/decisions/0006-bin-means.md). Pure and deterministic: the same request gives
+ * bit-identical output. The response shares the request's number lists (not copied).
  * Throws EngineInputError (HTTP 422 / exit status 2) naming the field to change.
  */
 export function runPrediction(request: unknown): PredictionResponse {
