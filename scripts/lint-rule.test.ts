@@ -18,7 +18,7 @@ describe("purity rule for app/engine", () => {
     ["pg", 'import pg from "pg";'],
     ["node: builtins", 'import { readFileSync } from "node:fs";'],
     ["bare builtins", 'import path from "path";'],
-    ["server-only modules", 'import { db } from "../.server/db.server";'],
+    ["server-only modules", 'import { db } from "../.server/platform/db.server";'],
   ] as const) {
     it(`refuses ${what}`, async () => {
       const errors = await errorsFor(`${line}\nexport const x = 1;\n`, "app/engine/example-module.ts");

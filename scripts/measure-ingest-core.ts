@@ -10,7 +10,7 @@ import { mkdtemp, rm } from "node:fs/promises";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
-import { ingestCsv } from "../app/.server/datasets/ingest-csv.server";
+import { ingestCsv } from "../app/.server/datasets/csv/ingest-csv.server";
 
 const MAPPING = {
   x: "theta",

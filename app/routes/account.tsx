@@ -1,11 +1,11 @@
 import { Form, data, useActionData, useLoaderData } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/account";
-import { createApiToken, listApiTokens, revokeApiToken } from "~/.server/api-tokens.server";
-import { db } from "~/.server/db.server";
-import { fieldErrorsOf, invalid } from "~/.server/forms.server";
-import { requireUser } from "~/.server/guards.server";
-import { clientIp } from "~/.server/sign-in.server";
+import { createApiToken, listApiTokens, revokeApiToken } from "~/.server/accounts/api-tokens.server";
+import { db } from "~/.server/platform/db.server";
+import { fieldErrorsOf, invalid } from "~/.server/platform/http/forms.server";
+import { requireUser } from "~/.server/platform/http/guards.server";
+import { clientIp } from "~/.server/accounts/sign-in.server";
 import { Button } from "~/components/ui/button";
 import { Field } from "~/components/ui/field";
 import { Notice } from "~/components/ui/notice";

@@ -1,12 +1,12 @@
 import { Form, data, useActionData, useLoaderData } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/admin-accounts";
-import { AdminError, resetAccount, setAccountStatus } from "~/.server/admin.server";
-import { db } from "~/.server/db.server";
-import { fieldErrorsOf, invalid } from "~/.server/forms.server";
-import { requireSite, requireUser } from "~/.server/guards.server";
-import { clientIp } from "~/.server/sign-in.server";
-import { listUsers } from "~/.server/users.server";
+import { AdminError, resetAccount, setAccountStatus } from "~/.server/accounts/admin.server";
+import { db } from "~/.server/platform/db.server";
+import { fieldErrorsOf, invalid } from "~/.server/platform/http/forms.server";
+import { requireSite, requireUser } from "~/.server/platform/http/guards.server";
+import { clientIp } from "~/.server/accounts/sign-in.server";
+import { listUsers } from "~/.server/accounts/users.server";
 import { Notice } from "~/components/ui/notice";
 import { Shape } from "~/components/ui/shape";
 

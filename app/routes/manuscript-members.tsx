@@ -1,15 +1,15 @@
 import { Form, data, useActionData, useLoaderData } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/manuscript-members";
-import { EmailSchema } from "~/.server/accounts.server";
-import { db } from "~/.server/db.server";
-import { fieldErrorsOf, invalid } from "~/.server/forms.server";
-import { requirePermission, requireUser } from "~/.server/guards.server";
-import { loadManuscriptPage } from "~/.server/manuscript-context.server";
+import { EmailSchema } from "~/.server/accounts/accounts.server";
+import { db } from "~/.server/platform/db.server";
+import { fieldErrorsOf, invalid } from "~/.server/platform/http/forms.server";
+import { requirePermission, requireUser } from "~/.server/platform/http/guards.server";
+import { loadManuscriptPage } from "~/.server/manuscripts/manuscript-context.server";
 import {
   MembershipError, RoleSchema, changeRole, inviteMember, listMembers, listOpenInvitations, removeMember,
-} from "~/.server/manuscripts.server";
-import { clientIp } from "~/.server/sign-in.server";
+} from "~/.server/manuscripts/manuscripts.server";
+import { clientIp } from "~/.server/accounts/sign-in.server";
 import { ManuscriptNav } from "~/components/manuscript-nav";
 import { RoleTag } from "~/components/role-tag";
 import { Button } from "~/components/ui/button";

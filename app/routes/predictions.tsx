@@ -1,7 +1,7 @@
 import { useId, useMemo, useState } from "react";
 import { useLoaderData } from "react-router";
 import type { Route } from "./+types/predictions";
-import { requireUser } from "~/.server/guards.server";
+import { requireUser } from "~/.server/platform/http/guards.server";
 import { PHYSICAL_CONSTANTS, PROCESSES, type Observable, type PredictionResponse } from "~/engine";
 import { PredictionChart, type ChartRow } from "~/components/prediction-chart";
 import { Fingerprint } from "~/components/fingerprint";

@@ -1,6 +1,6 @@
 import type { Route } from "./+types/predictions";
-import { apiHandler, readJsonBody } from "~/.server/api-handler.server";
-import { apiError, requireApiUser } from "~/.server/guards.server";
+import { apiHandler, readJsonBody } from "~/.server/platform/http/api-handler.server";
+import { apiError, requireApiUser } from "~/.server/platform/http/guards.server";
 import { EngineInputError, runPrediction } from "~/engine";
 
 export const loader = apiHandler(async ({ request }: Route.LoaderArgs) => {

@@ -1,13 +1,13 @@
 import { z } from "zod";
 import type { Route } from "./+types/revision-rows";
-import { apiHandler, methodNotAllowed } from "~/.server/api-handler.server";
-import { accessRevision } from "~/.server/dataset-access.server";
-import { revisionRowsPage } from "~/.server/dataset-repository.server";
+import { apiHandler, methodNotAllowed } from "~/.server/platform/http/api-handler.server";
+import { accessRevision } from "~/.server/datasets/dataset-access.server";
+import { revisionRowsPage } from "~/.server/datasets/dataset-repository.server";
 import { ROW_SORTS } from "~/revision-row-sorts";
 import { quantitySchema } from "~/datasets/quantity";
 import { resolveQuantityScales } from "~/datasets/quantity-scales";
-import { db } from "~/.server/db.server";
-import { apiError } from "~/.server/guards.server";
+import { db } from "~/.server/platform/db.server";
+import { apiError } from "~/.server/platform/http/guards.server";
 
 const NATURAL_Y = { dsigma_domega: "GeV^-2/sr", dsigma_dcos: "GeV^-2", dsigma_dt: "GeV^-4", sigma: "GeV^-2" } as const;
 

@@ -1,12 +1,12 @@
 import type { Route } from "./+types/revisions";
-import { apiHandler } from "~/.server/api-handler.server";
-import { accessDataset, auditRefusedUpload } from "~/.server/dataset-access.server";
-import { limitMessage, revisionJson, uploadOutcomeResponse } from "~/.server/dataset-json.server";
-import { listRevisions } from "~/.server/dataset-repository.server";
-import { db } from "~/.server/db.server";
-import { apiError } from "~/.server/guards.server";
-import { ingestUpload, receiveUploadForm } from "~/.server/revision-upload.server";
-import { clientIp } from "~/.server/sign-in.server";
+import { apiHandler } from "~/.server/platform/http/api-handler.server";
+import { accessDataset, auditRefusedUpload } from "~/.server/datasets/dataset-access.server";
+import { limitMessage, revisionJson, uploadOutcomeResponse } from "~/.server/datasets/dataset-json.server";
+import { listRevisions } from "~/.server/datasets/dataset-repository.server";
+import { db } from "~/.server/platform/db.server";
+import { apiError } from "~/.server/platform/http/guards.server";
+import { ingestUpload, receiveUploadForm } from "~/.server/datasets/revision-upload.server";
+import { clientIp } from "~/.server/accounts/sign-in.server";
 import { columnMappingSchema } from "~/datasets/column-mapping";
 import { quantitySchema } from "~/datasets/quantity";
 

@@ -4,7 +4,7 @@ import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { previewCsv } from "./preview-csv.server";
 
-const FIXTURES = path.resolve(import.meta.dirname, "../../../tests/fixtures/csv");
+const FIXTURES = path.resolve(import.meta.dirname, "../../../../tests/fixtures/csv");
 let dir: string;
 beforeAll(async () => {
   dir = await mkdtemp(path.join(tmpdir(), "steradian-preview-"));

@@ -1,7 +1,7 @@
-import { recordAudit } from "./audit.server";
+import { recordAudit } from "../platform/audit.server";
 import type { DatasetInputValue } from "./dataset-input.server";
 import { createDataset } from "./dataset-repository.server";
-import type { Db } from "./db.server";
+import type { Db } from "../platform/db.server";
 
 export class DatasetNameTaken extends Error {
   constructor(name: string) {

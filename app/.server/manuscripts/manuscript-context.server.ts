@@ -1,7 +1,7 @@
 import { capabilities } from "~/permissions";
 import type { ManuscriptAction } from "~/permissions";
-import { db } from "./db.server";
-import { notFound, requirePermission, requireUser } from "./guards.server";
+import { db } from "../platform/db.server";
+import { notFound, requirePermission, requireUser } from "../platform/http/guards.server";
 import { getManuscript } from "./manuscripts.server";
 
 /** What every manuscript page's loader starts with: the user, their role, the manuscript. */

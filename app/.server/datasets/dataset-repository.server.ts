@@ -3,8 +3,8 @@ import { Readable } from "node:stream";
 import { from as copyFrom } from "pg-copy-streams";
 import type { ColumnMapping } from "~/datasets/column-mapping";
 import type { QuantityDescription } from "~/datasets/quantity";
-import type { IngestColumns } from "./datasets/ingest-csv.server";
-import { type Db, pool } from "./db.server";
+import type { IngestColumns } from "./csv/ingest-csv.server";
+import { type Db, pool } from "../platform/db.server";
 import type { RowSort } from "~/revision-row-sorts";
 
 export interface DatasetMetadata {

@@ -1,9 +1,9 @@
 import { z } from "zod";
 import { MEMBER_ROLES, type MemberRole, ROLE_LABELS } from "~/permissions";
-import { recordAudit } from "./audit.server";
-import type { Db } from "./db.server";
-import { appLink, sendMail } from "./mail.server";
-import { hashSecret, newSecret } from "./tokens.server";
+import { recordAudit } from "../platform/audit.server";
+import type { Db } from "../platform/db.server";
+import { appLink, sendMail } from "../platform/mail.server";
+import { hashSecret, newSecret } from "../platform/tokens.server";
 
 export const INVITATION_TTL_MS = 14 * 24 * 3600_000;
 

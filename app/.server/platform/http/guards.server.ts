@@ -1,10 +1,10 @@
 import { data, redirect } from "react-router";
 import { type ManuscriptAction, type MemberRole, ROLE_LABELS, can, canSite, rolesFor, type SiteAction } from "~/permissions";
 import { isUuid } from "~/is-uuid";
-import { db } from "./db.server";
-import { hashSecret } from "./tokens.server";
-import { clearSessionCookie, sessionUserId } from "./session.server";
-import { findActiveUser, type SessionUser } from "./users.server";
+import { db } from "../db.server";
+import { hashSecret } from "../tokens.server";
+import { clearSessionCookie, sessionUserId } from "../session.server";
+import { findActiveUser, type SessionUser } from "../../accounts/users.server";
 
 /** Body of every API error; the same shape for 401, 403, 404 and 422. */
 export function apiError(status: number, code: string, message: string, extra: Record<string, unknown> = {}): Response {

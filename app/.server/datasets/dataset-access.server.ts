@@ -1,13 +1,13 @@
 import { Readable } from "node:stream";
 import { isUuid } from "~/is-uuid";
 import type { ManuscriptAction } from "~/permissions";
-import { recordAudit } from "./audit.server";
+import { recordAudit } from "../platform/audit.server";
 import { findDataset, findRevision } from "./dataset-repository.server";
-import { db } from "./db.server";
-import { type Mode, notFound, requireApiUser, requirePermission, requireUser } from "./guards.server";
-import { loadManuscriptPage } from "./manuscript-context.server";
+import { db } from "../platform/db.server";
+import { type Mode, notFound, requireApiUser, requirePermission, requireUser } from "../platform/http/guards.server";
+import { loadManuscriptPage } from "../manuscripts/manuscript-context.server";
 import { blobStore } from "./revision-upload.server";
-import type { SessionUser } from "./users.server";
+import type { SessionUser } from "../accounts/users.server";
 
 /** Authorises and finds a dataset of a manuscript; a dataset of another manuscript is a 404. */
 export async function accessDataset(mode: Mode, request: Request, manuscriptId: string, datasetId: string, action: ManuscriptAction) {

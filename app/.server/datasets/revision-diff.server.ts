@@ -1,6 +1,6 @@
 import { sql } from "kysely";
 import { REVISION_ROW_FIELDS, type ChangedRow, type RevisionDiff, type RevisionRow } from "~/datasets/diff-revisions";
-import type { Db } from "./db.server";
+import type { Db } from "../platform/db.server";
 
 const COLUMNS = { x: "x", xLow: "x_low", xHigh: "x_high", y: "y", statMinus: "stat_minus", statPlus: "stat_plus", systMinus: "syst_minus", systPlus: "syst_plus" } as const;
 

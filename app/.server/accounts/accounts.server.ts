@@ -1,8 +1,8 @@
 import { z } from "zod";
-import { recordAudit } from "./audit.server";
-import type { Db } from "./db.server";
-import { appLink, sendMail } from "./mail.server";
-import { hashSecret, newSecret } from "./tokens.server";
+import { recordAudit } from "../platform/audit.server";
+import type { Db } from "../platform/db.server";
+import { appLink, sendMail } from "../platform/mail.server";
+import { hashSecret, newSecret } from "../platform/tokens.server";
 import { findUserByEmail, hashPassword } from "./users.server";
 
 export const CONFIRM_TTL_MS = 24 * 3600_000;

@@ -1,5 +1,5 @@
 import { createHmac, timingSafeEqual } from "node:crypto";
-import { env } from "./env.server";
+import { env } from "../platform/env.server";
 import { statPending } from "./revision-upload.server";
 
 /**

@@ -4,14 +4,14 @@ import { FormDataParseError, parseFormData } from "@mjackson/form-data-parser";
 import type { ColumnMapping } from "~/datasets/column-mapping";
 import type { DatasetProblem } from "~/datasets/dataset-problem";
 import type { QuantityDescription } from "~/datasets/quantity";
-import { recordAudit } from "./audit.server";
-import { ingestCsv } from "./datasets/ingest-csv.server";
-import { db } from "./db.server";
-import { env } from "./env.server";
+import { recordAudit } from "../platform/audit.server";
+import { ingestCsv } from "./csv/ingest-csv.server";
+import { db } from "../platform/db.server";
+import { env } from "../platform/env.server";
 import { type SaveRevisionResult, saveRevision } from "./dataset-repository.server";
-import type { BlobStore } from "./storage/blob-store.server";
-import { createBlobStoreFromEnv } from "./storage/from-env.server";
-import { createUploadReceiver, type StoredUpload, uploadLimitOf } from "./storage/upload-handler.server";
+import type { BlobStore } from "../storage/blob-store.server";
+import { createBlobStoreFromEnv } from "../storage/from-env.server";
+import { createUploadReceiver, type StoredUpload, uploadLimitOf } from "../storage/upload-handler.server";
 
 let store: BlobStore | undefined;
 export function blobStore(): BlobStore {

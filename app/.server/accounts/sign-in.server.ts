@@ -2,9 +2,9 @@ import bcrypt from "bcryptjs";
 import { Authenticator } from "remix-auth";
 import { FormStrategy } from "remix-auth-form";
 import { z } from "zod";
-import { recordAudit } from "./audit.server";
-import { db, type Db } from "./db.server";
-import { env } from "./env.server";
+import { recordAudit } from "../platform/audit.server";
+import { db, type Db } from "../platform/db.server";
+import { env } from "../platform/env.server";
 import { findUserByEmail, type SessionUser, verifyPassword } from "./users.server";
 
 /** One message for an unknown address and a wrong password, so neither reveals an account. */

@@ -1,6 +1,6 @@
 import bcrypt from "bcryptjs";
-import type { Db } from "./db.server";
-import { env } from "./env.server";
+import type { Db } from "../platform/db.server";
+import { env } from "../platform/env.server";
 import type { SessionUser } from "~/session-user";
 
 export type { SessionUser } from "~/session-user";

@@ -1,4 +1,4 @@
-import type { Dataset, DatasetRevision } from "../../db/types";
+import type { Dataset, DatasetRevision } from "../../../db/types";
 import type { UploadOutcome } from "./revision-upload.server";
 
 /** The JSON shapes of the datasets API, in one place. */

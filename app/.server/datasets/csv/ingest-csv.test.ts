@@ -8,7 +8,7 @@ import type { DatasetProblem } from "~/datasets/dataset-problem";
 import type { QuantityDescription } from "~/datasets/quantity";
 import { ingestCsv, type IngestResult } from "./ingest-csv.server";
 
-const FIXTURES = path.resolve(import.meta.dirname, "../../../tests/fixtures/csv");
+const FIXTURES = path.resolve(import.meta.dirname, "../../../../tests/fixtures/csv");
 let dir: string;
 let fileNo = 0;
 beforeAll(async () => {

@@ -8,8 +8,8 @@ import { runPrediction } from "~/engine";
 import { columnMappingSchema } from "~/datasets/column-mapping";
 import { quantitySchema } from "~/datasets/quantity";
 import { createDataset } from "./dataset-repository.server";
-import type { Db } from "./db.server";
-import { env } from "./env.server";
+import type { Db } from "../platform/db.server";
+import { env } from "../platform/env.server";
 import { blobStore, ingestUpload } from "./revision-upload.server";
 
 /** mulberry32: a small seeded generator, so that the demo is the same on every machine. */

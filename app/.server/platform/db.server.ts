@@ -1,6 +1,6 @@
 import { Kysely, PostgresDialect } from "kysely";
 import pg from "pg";
-import type { Database } from "../../db/types";
+import type { Database } from "../../../db/types";
 import { env } from "./env.server";
 
 // NUMERIC and BIGINT come back as strings by default; counts and ids here fit a double.

@@ -1,5 +1,5 @@
-import { recordAudit } from "./audit.server";
-import type { Db } from "./db.server";
+import { recordAudit } from "../platform/audit.server";
+import type { Db } from "../platform/db.server";
 import { requestPasswordReset } from "./accounts.server";
 
 export class AdminError extends Error {}

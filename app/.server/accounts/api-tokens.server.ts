@@ -1,6 +1,6 @@
-import { recordAudit } from "./audit.server";
-import type { Db } from "./db.server";
-import { newSecret } from "./tokens.server";
+import { recordAudit } from "../platform/audit.server";
+import type { Db } from "../platform/db.server";
+import { newSecret } from "../platform/tokens.server";
 
 const PREFIX = "sdn_";
 
