@@ -5,7 +5,7 @@ import { createApiToken, listApiTokens, revokeApiToken } from "~/.server/account
 import { db } from "~/.server/platform/db.server";
 import { fieldErrorsOf, invalid } from "~/.server/platform/http/forms.server";
 import { requireUser } from "~/.server/platform/http/guards.server";
-import { clientIp } from "~/.server/accounts/sign-in.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
 import { Button } from "~/components/ui/button";
 import { Field } from "~/components/ui/field";
 import { Notice } from "~/components/ui/notice";

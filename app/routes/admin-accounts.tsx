@@ -5,7 +5,7 @@ import { AdminError, resetAccount, setAccountStatus } from "~/.server/accounts/a
 import { db } from "~/.server/platform/db.server";
 import { fieldErrorsOf, invalid } from "~/.server/platform/http/forms.server";
 import { requireSite, requireUser } from "~/.server/platform/http/guards.server";
-import { clientIp } from "~/.server/accounts/sign-in.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
 import { listUsers } from "~/.server/accounts/users.server";
 import { Notice } from "~/components/ui/notice";
 import { Shape } from "~/components/ui/shape";

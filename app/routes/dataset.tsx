@@ -10,7 +10,7 @@ import { env } from "~/.server/platform/env.server";
 import { fieldErrorsOf } from "~/.server/platform/http/forms.server";
 import { type UploadOutcome, ingestUpload, pendingId, receiveUploadForm } from "~/.server/datasets/revision-upload.server";
 import { openPending, signPending } from "~/.server/datasets/pending-upload.server";
-import { clientIp } from "~/.server/accounts/sign-in.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
 import { Fingerprint } from "~/components/fingerprint";
 import { ManuscriptNav } from "~/components/manuscript-nav";
 import { MappingEditor } from "~/components/mapping-editor";

@@ -7,7 +7,7 @@ import { db } from "~/.server/platform/db.server";
 import { fieldErrorsOf, invalid } from "~/.server/platform/http/forms.server";
 import { requirePermission, requireUser } from "~/.server/platform/http/guards.server";
 import { loadManuscriptPage } from "~/.server/manuscripts/manuscript-context.server";
-import { clientIp } from "~/.server/accounts/sign-in.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
 import { ManuscriptNav } from "~/components/manuscript-nav";
 import { describeQuantity } from "~/components/quantity-labels";
 import { Button } from "~/components/ui/button";

@@ -4,7 +4,7 @@ import type { Route } from "./+types/forgot-password";
 import { EmailSchema, requestPasswordReset } from "~/.server/accounts/accounts.server";
 import { db } from "~/.server/platform/db.server";
 import { parseForm } from "~/.server/platform/http/forms.server";
-import { clientIp } from "~/.server/accounts/sign-in.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
 import { Button } from "~/components/ui/button";
 import { Field } from "~/components/ui/field";
 

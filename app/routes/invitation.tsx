@@ -6,7 +6,7 @@ import { db } from "~/.server/platform/db.server";
 import { fieldErrorsOf, invalid } from "~/.server/platform/http/forms.server";
 import { optionalUser } from "~/.server/platform/http/guards.server";
 import { MembershipError, acceptInvitation, createAccountFromInvitation, findInvitation } from "~/.server/manuscripts/manuscripts.server";
-import { clientIp } from "~/.server/accounts/sign-in.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
 import { startSession } from "~/.server/platform/session.server";
 import { findUserByEmail, hashPassword } from "~/.server/accounts/users.server";
 import { RoleTag } from "~/components/role-tag";

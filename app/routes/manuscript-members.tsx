@@ -9,7 +9,7 @@ import { loadManuscriptPage } from "~/.server/manuscripts/manuscript-context.ser
 import {
   MembershipError, RoleSchema, changeRole, inviteMember, listMembers, listOpenInvitations, removeMember,
 } from "~/.server/manuscripts/manuscripts.server";
-import { clientIp } from "~/.server/accounts/sign-in.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
 import { ManuscriptNav } from "~/components/manuscript-nav";
 import { RoleTag } from "~/components/role-tag";
 import { Button } from "~/components/ui/button";

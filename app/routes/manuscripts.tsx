@@ -4,7 +4,7 @@ import { db } from "~/.server/platform/db.server";
 import { parseForm } from "~/.server/platform/http/forms.server";
 import { requireUser } from "~/.server/platform/http/guards.server";
 import { ManuscriptForm, createManuscript, listManuscriptsForUser } from "~/.server/manuscripts/manuscripts.server";
-import { clientIp } from "~/.server/accounts/sign-in.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
 import { Button } from "~/components/ui/button";
 import { Field } from "~/components/ui/field";
 import { DemoBadge } from "~/components/ui/notice";

@@ -1,7 +1,7 @@
 import type { Route } from "./+types/sign-out";
 import { recordAudit } from "~/.server/platform/audit.server";
 import { db } from "~/.server/platform/db.server";
-import { clientIp } from "~/.server/accounts/sign-in.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
 import { endSession, sessionUserId } from "~/.server/platform/session.server";
 
 export async function loader() {

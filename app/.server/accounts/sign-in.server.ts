@@ -72,11 +72,6 @@ export async function verifyCredentials(db: Db, email: string, password: string,
   return { id: user.id, email: user.email, name: user.name, siteRole: user.site_role, isDemo: user.is_demo };
 }
 
-export function clientIp(context: unknown): string {
-  const ip = (context as { ip?: unknown } | undefined)?.ip;
-  return typeof ip === "string" && ip ? ip : "local";
-}
-
 export function createAuthenticator(ip: string) {
   const authenticator = new Authenticator<SessionUser>();
   authenticator.use(

@@ -5,8 +5,9 @@ import { DatasetInput } from "~/.server/datasets/dataset-input.server";
 import { datasetJson } from "~/.server/datasets/dataset-json.server";
 import { listDatasets } from "~/.server/datasets/dataset-repository.server";
 import { db } from "~/.server/platform/db.server";
-import { apiError, requireApiUser, requirePermission } from "~/.server/platform/http/guards.server";
-import { clientIp } from "~/.server/accounts/sign-in.server";
+import { requireApiUser, requirePermission } from "~/.server/platform/http/guards.server";
+import { apiError } from "~/.server/platform/http/api-error.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
 
 export const loader = apiHandler(async ({ request, params }: Route.LoaderArgs) => {
   const user = await requireApiUser(request);

@@ -1,7 +1,8 @@
 import type { Route } from "./+types/manuscripts";
 import { apiHandler } from "~/.server/platform/http/api-handler.server";
 import { db } from "~/.server/platform/db.server";
-import { apiError, requireApiUser } from "~/.server/platform/http/guards.server";
+import { requireApiUser } from "~/.server/platform/http/guards.server";
+import { apiError } from "~/.server/platform/http/api-error.server";
 import { listManuscriptsForUser } from "~/.server/manuscripts/manuscripts.server";
 
 export const loader = apiHandler(async ({ request }: Route.LoaderArgs) => {

@@ -7,7 +7,7 @@ import { ROW_SORTS } from "~/revision-row-sorts";
 import { quantitySchema } from "~/datasets/quantity";
 import { resolveQuantityScales } from "~/datasets/quantity-scales";
 import { db } from "~/.server/platform/db.server";
-import { apiError } from "~/.server/platform/http/guards.server";
+import { apiError } from "~/.server/platform/http/api-error.server";
 
 const NATURAL_Y = { dsigma_domega: "GeV^-2/sr", dsigma_dcos: "GeV^-2", dsigma_dt: "GeV^-4", sigma: "GeV^-2" } as const;
 

@@ -4,9 +4,9 @@ import { accessDataset, auditRefusedUpload } from "~/.server/datasets/dataset-ac
 import { limitMessage, revisionJson, uploadOutcomeResponse } from "~/.server/datasets/dataset-json.server";
 import { listRevisions } from "~/.server/datasets/dataset-repository.server";
 import { db } from "~/.server/platform/db.server";
-import { apiError } from "~/.server/platform/http/guards.server";
+import { apiError } from "~/.server/platform/http/api-error.server";
 import { ingestUpload, receiveUploadForm } from "~/.server/datasets/revision-upload.server";
-import { clientIp } from "~/.server/accounts/sign-in.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
 import { columnMappingSchema } from "~/datasets/column-mapping";
 import { quantitySchema } from "~/datasets/quantity";
 

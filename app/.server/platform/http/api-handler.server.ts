@@ -1,4 +1,5 @@
-import { apiError, requireApiUser } from "./guards.server";
+import { apiError } from "./api-error.server";
+import { requireApiUser } from "./guards.server";
 
 /**
  * Wraps an API loader or action so that whatever goes wrong, the caller gets JSON: thrown

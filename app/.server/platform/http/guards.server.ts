@@ -1,15 +1,11 @@
 import { data, redirect } from "react-router";
 import { type ManuscriptAction, type MemberRole, ROLE_LABELS, can, canSite, rolesFor, type SiteAction } from "~/permissions";
 import { isUuid } from "~/is-uuid";
+import { apiError } from "./api-error.server";
 import { db } from "../db.server";
 import { hashSecret } from "../tokens.server";
 import { clearSessionCookie, sessionUserId } from "../session.server";
 import { findActiveUser, type SessionUser } from "../../accounts/users.server";
-
-/** Body of every API error; the same shape for 401, 403, 404 and 422. */
-export function apiError(status: number, code: string, message: string, extra: Record<string, unknown> = {}): Response {
-  return Response.json({ error: { code, message, ...extra } }, { status });
-}
 
 // The root loader and the page's own loader both ask who is signed in; one look-up a request.
 const seen = new WeakMap<Request, Promise<SessionUser | null>>();
