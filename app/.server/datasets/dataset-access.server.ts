@@ -9,12 +9,29 @@ import { loadManuscriptPage } from "../manuscripts/manuscript-context.server";
 import { blobStore } from "./revision-upload.server";
 import type { SessionUser } from "../accounts/users.server";
 
+/**
+ * The dataset `datasetId` of the manuscript `manuscriptId`: the one look-up behind pages and
+ * the API. A malformed id, or a dataset of another manuscript, is a 404. Authorise first.
+ */
+export async function datasetOfManuscript(mode: Mode, manuscriptId: string, datasetId: string) {
+  const dataset = isUuid(datasetId) ? await findDataset(db, manuscriptId, datasetId) : undefined;
+  if (!dataset) notFound(mode, "The dataset");
+  return dataset;
+}
+
+/** Revision `r<n>` (or `<n>`) of a dataset found by datasetOfManuscript; anything else is a 404. */
+export async function revisionOfDataset(mode: Mode, datasetId: string, numberText: string) {
+  const number = parseRevisionNumber(mode, numberText);
+  const revision = await findRevision(db, datasetId, number);
+  if (!revision) notFound(mode, `Revision r${number}`);
+  return revision;
+}
+
 /** Authorises and finds a dataset of a manuscript; a dataset of another manuscript is a 404. */
 export async function accessDataset(mode: Mode, request: Request, manuscriptId: string, datasetId: string, action: ManuscriptAction) {
   const user = mode === "api" ? await requireApiUser(request) : await requireUser(request);
   const role = await requirePermission(mode, user, manuscriptId, action);
-  const dataset = isUuid(datasetId) ? await findDataset(db, manuscriptId, datasetId) : undefined;
-  if (!dataset) notFound(mode, "The dataset");
+  const dataset = await datasetOfManuscript(mode, manuscriptId, datasetId);
   return { user, role, dataset };
 }
 
@@ -26,9 +43,7 @@ export function parseRevisionNumber(mode: Mode, text: string): number {
 
 export async function accessRevision(mode: Mode, request: Request, params: { manuscriptId: string; datasetId: string; number: string }, action: ManuscriptAction = "read:dataset") {
   const found = await accessDataset(mode, request, params.manuscriptId, params.datasetId, action);
-  const number = parseRevisionNumber(mode, params.number);
-  const revision = await findRevision(db, found.dataset.id, number);
-  if (!revision) notFound(mode, `Revision r${number}`);
+  const revision = await revisionOfDataset(mode, found.dataset.id, params.number);
   return { ...found, revision };
 }
 
@@ -58,16 +73,13 @@ export async function auditRefusedUpload(args: { userId: string; manuscriptId: s
 /** A dataset page's loader context: the manuscript page context and the dataset, authorised once. */
 export async function loadDatasetPage(request: Request, params: { manuscriptId: string; datasetId: string }, action: ManuscriptAction = "read:dataset") {
   const page = await loadManuscriptPage(request, params.manuscriptId, action);
-  const dataset = isUuid(params.datasetId) ? await findDataset(db, params.manuscriptId, params.datasetId) : undefined;
-  if (!dataset) notFound("page", "The dataset");
+  const dataset = await datasetOfManuscript("page", params.manuscriptId, params.datasetId);
   return { ...page, dataset };
 }
 
 /** The same for a revision's pages. */
 export async function loadRevisionPage(request: Request, params: { manuscriptId: string; datasetId: string; number: string }) {
   const page = await loadDatasetPage(request, params);
-  const number = parseRevisionNumber("page", params.number);
-  const revision = await findRevision(db, page.dataset.id, number);
-  if (!revision) notFound("page", `Revision r${number}`);
+  const revision = await revisionOfDataset("page", page.dataset.id, params.number);
   return { ...page, revision };
 }
