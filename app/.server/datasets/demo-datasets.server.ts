@@ -5,6 +5,7 @@ import { createReadStream } from "node:fs";
 import { mkdir, unlink, writeFile } from "node:fs/promises";
 import path from "node:path";
 import { runPrediction } from "~/engine";
+import { seededRandom } from "~/engine/testing/seeded-random";
 import { columnMappingSchema } from "~/datasets/column-mapping";
 import { quantitySchema } from "~/datasets/quantity";
 import { createDataset } from "./dataset-repository.server";
@@ -12,16 +13,9 @@ import type { Db } from "../platform/db.server";
 import { env } from "../platform/env.server";
 import { blobStore, ingestUpload } from "./revision-upload.server";
 
-/** mulberry32: a small seeded generator, so that the demo is the same on every machine. */
+/** Seeded Gaussian noise (Box–Muller), so that the demo is the same on every machine. */
 function seeded(seed: number) {
-  let a = seed >>> 0;
-  const next = () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
+  const next = seededRandom(seed);
   return { gauss: () => Math.sqrt(-2 * Math.log(1 - next())) * Math.cos(2 * Math.PI * next()) };
 }
 
