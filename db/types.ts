@@ -1,4 +1,5 @@
 import type { ColumnType, Generated, Insertable, Selectable, Updateable } from "kysely";
+import type { MemberRole } from "../app/permissions";
 
 // The typed database interface; kept by hand beside the migrations in db/migrations.
 // Kysely's Generated<> does not unwrap a ColumnType, so the variants are spelled out.
@@ -11,7 +12,8 @@ type NullableJson = ColumnType<unknown, string | null | undefined, string | null
 
 export type SiteRole = "member" | "admin";
 export type UserStatus = "pending" | "active" | "disabled";
-export type MemberRole = "corresponding" | "coauthor" | "contributor" | "observer";
+// The member roles are defined once, beside the permission matrix that gives them meaning.
+export type { MemberRole };
 
 export interface AppUserTable {
   id: Generated<string>;
