@@ -7,7 +7,7 @@ import { listRevisions } from "~/.server/datasets/dataset-repository.server";
 import { previewCsv } from "~/.server/datasets/csv/preview-csv.server";
 import { db } from "~/.server/platform/db.server";
 import { env } from "~/.server/platform/env.server";
-import { fieldErrorsOf } from "~/.server/platform/http/forms.server";
+import { parseFields } from "~/.server/platform/http/forms.server";
 import { type UploadOutcome, ingestUpload, pendingId, receiveUploadForm } from "~/.server/datasets/revision-upload.server";
 import { openPending, signPending } from "~/.server/datasets/pending-upload.server";
 import { clientIp } from "~/.server/platform/http/client-address.server";
@@ -71,13 +71,13 @@ export async function action({ request, params, context }: Route.ActionArgs) {
     throw redirect(`${base}?pending=${encodeURIComponent(token)}&file=${encodeURIComponent(upload.fileName)}`);
   }
 
-  const fields = Object.fromEntries(await request.formData());
-  const fileName = String(fields.fileName ?? "");
-  const pending = await openPending(String(fields.pending ?? ""), { userId: user.id, datasetId: dataset.id, fileName });
+  const form = await request.formData();
+  const fileName = String(form.get("fileName") ?? "");
+  const pending = await openPending(String(form.get("pending") ?? ""), { userId: user.id, datasetId: dataset.id, fileName });
   if (!pending) return data<ActionResult>({ kind: "error", message: "That upload is no longer waiting (it was used, or the server restarted). Upload the file again." }, { status: 422 });
-  const mapping = MappingForm.safeParse(fields);
-  if (!mapping.success) return data<ActionResult>({ kind: "error", message: "Some columns need attention.", fieldErrors: fieldErrorsOf(mapping.error) }, { status: 422 });
-  const outcome = await ingestUpload({ ...common, tempPath: pending.tempPath, raw: { sha256: pending.sha256, bytes: pending.bytes, fileName }, mapping: mapping.data });
+  const mapping = parseFields(form, MappingForm);
+  if (!mapping.ok) return data<ActionResult>({ kind: "error", message: "Some columns need attention.", fieldErrors: mapping.fieldErrors }, { status: 422 });
+  const outcome = await ingestUpload({ ...common, tempPath: pending.tempPath, raw: { sha256: pending.sha256, bytes: pending.bytes, fileName }, mapping: mapping.value });
   return answer(outcome, base);
 }
 

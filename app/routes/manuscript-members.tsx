@@ -3,7 +3,7 @@ import { z } from "zod";
 import type { Route } from "./+types/manuscript-members";
 import { EmailSchema } from "~/.server/accounts/accounts.server";
 import { db } from "~/.server/platform/db.server";
-import { fieldErrorsOf, invalid } from "~/.server/platform/http/forms.server";
+import { parseForm } from "~/.server/platform/http/forms.server";
 import { requirePermission, requireUser } from "~/.server/platform/http/guards.server";
 import { loadManuscriptPage } from "~/.server/manuscripts/manuscript-context.server";
 import {
@@ -35,9 +35,9 @@ const MemberAction = z.discriminatedUnion("intent", [
 export async function action({ request, params, context }: Route.ActionArgs) {
   const user = await requireUser(request);
   await requirePermission("page", user, params.manuscriptId, "manage:members");
-  const parsed = MemberAction.safeParse(Object.fromEntries(await request.formData()));
-  if (!parsed.success) return invalid(fieldErrorsOf(parsed.error));
-  const input = parsed.data;
+  const parsed = await parseForm(request, MemberAction);
+  if (!parsed.ok) return parsed.response;
+  const input = parsed.value;
   const common = { manuscriptId: params.manuscriptId, ip: clientIp(context) };
   try {
     if (input.intent === "invite") {

@@ -59,6 +59,14 @@ export const DatasetForm = z
   }))
   .pipe(DatasetInput);
 
+/** The flat form field of each nested path of DatasetInput, for errors shown beside the field. */
+export const DATASET_FORM_FIELDS: Record<string, string> = {
+  "quantity.y.unit": "yUnit",
+  "quantity.x.unit": "xUnit",
+  "metadata.beamEnergyGeV": "beamEnergyGeV",
+  "metadata.process": "process",
+};
+
 function xQuantity(kind: (typeof X_KINDS)[number], unit: string | undefined): z.input<typeof quantitySchema>["x"] {
   if (kind === "t") return { kind, unit: (unit || "GeV^2") as (typeof T_UNITS)[number] };
   if (kind === "sqrt_s" || kind === "beam_energy" || kind === "beam_kinetic") return { kind, unit: (unit || "GeV") as (typeof ENERGY_UNITS)[number] };
