@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { columnMappingSchema } from "~/datasets/column-mapping";
+import { type ColumnMapping, columnMappingSchema } from "~/datasets/column-mapping";
 import { ENERGY_UNITS, T_UNITS, X_KINDS, Y_KINDS, quantitySchema } from "~/datasets/quantity";
 import { PROCESSES } from "~/engine";
 
@@ -102,3 +102,39 @@ export const MappingForm = z
     };
   })
   .pipe(columnMappingSchema);
+
+const jsonText = z.string().transform((text, ctx) => {
+  try {
+    return JSON.parse(text) as unknown;
+  } catch {
+    ctx.addIssue({ code: "custom", message: "The “mapping” field is not valid JSON." });
+    return z.NEVER;
+  }
+});
+
+/**
+ * The `mapping` field of an API upload: a column mapping as JSON text. Absent, blank or not
+ * text, it is undefined: the dataset's saved mapping applies.
+ */
+export const MappingField = z.preprocess(
+  (field) => (typeof field === "string" && field.trim() !== "" ? field : undefined),
+  jsonText.pipe(columnMappingSchema).optional(),
+);
+
+export type UploadMapping =
+  | { ok: true; mapping: ColumnMapping }
+  | { ok: false; code: "invalid-mapping" | "missing-mapping"; message: string; field: string };
+
+/** The mapping an API upload is read with: the one sent in its `mapping` field, else the dataset's saved one. */
+export function uploadMapping(field: unknown, saved: unknown): UploadMapping {
+  const sent = MappingField.safeParse(field);
+  const parsed = sent.success && sent.data === undefined && saved != null ? columnMappingSchema.safeParse(saved) : sent;
+  if (!parsed.success) {
+    const issue = parsed.error.issues[0];
+    return { ok: false, code: "invalid-mapping", message: issue.message, field: ["mapping", ...issue.path].join(".") };
+  }
+  if (parsed.data === undefined) {
+    return { ok: false, code: "missing-mapping", message: "This dataset has no saved column mapping yet: send one in the “mapping” field.", field: "mapping" };
+  }
+  return { ok: true, mapping: parsed.data };
+}
