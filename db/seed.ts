@@ -1,4 +1,4 @@
-// Seeds the invented demonstration scenario (DESIGN.md): a fictional fixed-target collaboration
+// Seeds the invented demonstration scenario (docs/product.md, "Demo scenario"): a fictional fixed-target collaboration
 // studying positron annihilation in flight, plus a two-photon analysis of charged-pion pairs.
 // Idempotent: a second run changes nothing.
 import bcrypt from "bcryptjs";

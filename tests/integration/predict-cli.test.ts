@@ -1,4 +1,4 @@
-// `npm run --silent predict` (DESIGN.md "Prediction contract"): the request on standard input,
+// `npm run --silent predict` (docs/product.md "Prediction contract"): the request on standard input,
 // the response JSON alone on standard output, exit status 2 with the error JSON for bad input;
 // the same bytes as the HTTP API for the same request.
 import { spawn } from "node:child_process";
