@@ -1,7 +1,8 @@
 import type { ColumnType, Generated, Insertable, Selectable, Updateable } from "kysely";
 import type { MemberRole } from "../app/permissions";
 
-// The typed database interface; kept by hand beside the migrations in db/migrations.
+// The typed database interface; kept by hand beside the migrations in db/migrations, and
+// compared with the migrated schema by tests/integration/db-types.test.ts.
 // Kysely's Generated<> does not unwrap a ColumnType, so the variants are spelled out.
 type Timestamp = ColumnType<Date, Date | string, Date | string>;
 type GeneratedTimestamp = ColumnType<Date, Date | string | undefined, Date | string>;
