@@ -8,6 +8,20 @@ describe("numbers and transforms", () => {
     expect([fmt(1.23449), fmt(1.2346), fmt(-0.0004), fmt(0), fmt(-2.5), fmt(1e-9)]).toEqual(["1.234", "1.235", "0", "0", "-2.5", "0"]);
   });
 
+  it("prints the same text as the rounded number printed by JavaScript itself", () => {
+    // The independent, slower formulation: round to thousandths, let String() print it.
+    const reference = (v: number) => {
+      const r = Math.round(v * 1000) / 1000;
+      return r === 0 ? "0" : String(r);
+    };
+    let seed = 12345;
+    const random = () => ((seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31);
+    for (let i = 0; i < 20000; i++) {
+      const v = (random() - 0.5) * 10 ** Math.floor(random() * 8 - 3);
+      expect(fmt(v), String(v)).toBe(reference(v));
+    }
+  });
+
   it("composes a transform list left to right, as SVG applies it (outer first)", () => {
     // translate(10,20) scale(2): the point (1,1) goes to (2,2), then to (12,22) — worked by hand.
     const m = parseTransform("translate(10,20) scale(2)");

@@ -53,8 +53,16 @@ export function parseTransform(text: string | undefined): Affine {
 
 /** Formats a coordinate with at most three decimals, never "-0". */
 export function fmt(v: number): string {
-  const r = Math.round(v * 1000) / 1000;
-  return Object.is(r, -0) || r === 0 ? "0" : String(r);
+  const thousandths = Math.round(v * 1000);
+  if (thousandths === 0) return "0";
+  // Integer arithmetic: exact, and faster than printing the rounded float.
+  const abs = Math.abs(thousandths);
+  const whole = Math.floor(abs / 1000);
+  const frac = abs % 1000;
+  const sign = thousandths < 0 ? "-" : "";
+  if (frac === 0) return `${sign}${whole}`;
+  const digits = frac < 10 ? `00${frac}` : frac < 100 ? `0${frac}` : `${frac}`;
+  return `${sign}${whole}.${digits.replace(/0+$/, "")}`;
 }
 
 interface Segment {
@@ -65,6 +73,7 @@ interface Segment {
 /** Parses path data into absolute M, L, C, Q and Z segments (H, V, S, T and relative forms resolved). */
 export function parsePath(d: string): Segment[] {
   const tokens = d.match(/[a-zA-Z]|[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?/g) ?? [];
+  const isCommand = (t: string | undefined) => t !== undefined && t.length === 1 && ((t >= "a" && t <= "z") || (t >= "A" && t <= "Z"));
   const out: Segment[] = [];
   let i = 0;
   let command = "";
@@ -77,11 +86,11 @@ export function parsePath(d: string): Segment[] {
   let lastQuad: [number, number] | null = null;
   const next = () => {
     const t = tokens[i++];
-    if (t === undefined || /[a-zA-Z]/.test(t)) throw new UnsupportedSvgError(`path data ends early: ${d.slice(0, 60)}`);
+    if (t === undefined || isCommand(t)) throw new UnsupportedSvgError(`path data ends early: ${d.slice(0, 60)}`);
     return Number(t);
   };
   while (i < tokens.length) {
-    if (/[a-zA-Z]/.test(tokens[i])) command = tokens[i++];
+    if (isCommand(tokens[i])) command = tokens[i++];
     else if (command === "") throw new UnsupportedSvgError(`path data must start with a command: ${d.slice(0, 60)}`);
     const rel = command === command.toLowerCase();
     const ox = rel ? x : 0;
@@ -162,14 +171,13 @@ export function parsePath(d: string): Segment[] {
 /** Path data of `segments` mapped by `m`, absolute commands, fixed precision. */
 export function formatPath(segments: Segment[], m: Affine): string {
   let out = "";
+  const [a, b, c, d, e, f] = m;
   for (const s of segments) {
     out += s.command;
-    out += s.points
-      .map(([px, py]) => {
-        const [X, Y] = apply(m, px, py);
-        return `${fmt(X)} ${fmt(Y)}`;
-      })
-      .join(" ");
+    for (let i = 0; i < s.points.length; i++) {
+      const [px, py] = s.points[i];
+      out += `${i > 0 ? " " : ""}${fmt(a * px + c * py + e)} ${fmt(b * px + d * py + f)}`;
+    }
   }
   return out;
 }
