@@ -22,7 +22,9 @@ export type AuditAction =
   | "revision-uploaded"
   | "revision-rejected"
   | "revision-identical"
-  | "raw-file-downloaded";
+  | "raw-file-downloaded"
+  | "figure-created"
+  | "figure-draft-saved";
 
 export interface AuditEntry {
   action: AuditAction;
