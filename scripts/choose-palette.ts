@@ -12,7 +12,7 @@
 //   npm run choose:palette -- --search '#1f4e8c' '#c27c12' '#b3301f' '#2a8c80'
 // (four hues picked by hand: indigo, ochre, vermilion, teal), reordered so that each next colour
 // is the farthest from those before it, and named by hand.
-import { converter, displayable, formatHex } from "culori";
+import { converter, displayable, formatHex, parseHex } from "culori";
 import { FIGURE_BACKGROUND as FIGURE_BACKGROUND_HEX } from "../app/figures/build-figure";
 import { FIGURE_COLOURS, MIN_CONTRAST_ON_WHITE, MIN_DIFFERENCE_CIEDE2000 } from "../app/figures/palette";
 import { contrastWcag21, contrastWithCulori, differenceSeenAs, VISIONS, worstDifference } from "../app/figures/testing/colour-vision";
@@ -109,7 +109,8 @@ if (process.argv.includes("--search")) {
   const found = search(seeds.length > 0 ? seeds : ["#1f4e8c"], FIGURE_COLOURS.length);
   const lch = converter("oklch");
   for (const hex of found) {
-    const c = lch(hex);
+    const c = lch(parseHex(hex));
+    if (c === undefined) continue;
     console.log(`${hex}  oklch(${c.l.toFixed(2)} ${c.c.toFixed(3)} ${(c.h ?? 0).toFixed(0)})  contrast ${contrastWcag21(hex, FIGURE_BACKGROUND_HEX).toFixed(2)}`);
   }
 } else if (!report()) {

@@ -10,14 +10,16 @@ import {
   filterDeficiencyProt,
   filterDeficiencyTrit,
   wcagContrast,
-  type Color,
   type Lab65,
+  type Lrgb,
+  type Rgb,
 } from "culori";
 
 export const VISIONS = ["normal", "protanopia", "deuteranopia", "tritanopia"] as const;
 export type Vision = (typeof VISIONS)[number];
 
 const toLab = converter("lab65");
+const toRgb = converter("rgb");
 const toLinear = converter("lrgb");
 const ciede2000 = differenceCiede2000();
 const FILTERS = {
@@ -33,15 +35,17 @@ const FILTERS = {
  * palette does not depend on which one a reader's simulator uses.
  */
 export function seenAs(hex: string, vision: Vision): Lab65[] {
-  if (vision === "normal") return [toLab(hex)];
+  const rgb = toRgb(hex);
+  if (rgb === undefined) throw new Error(`not a colour: ${hex}`);
+  if (vision === "normal") return [toLab(rgb)];
   const filter = FILTERS[vision];
   const clamp = (v: number) => Math.min(1, Math.max(0, v));
-  const encoded = filter(converter("rgb")(hex));
-  const fromEncoded: Color = { mode: "rgb", r: clamp(encoded.r), g: clamp(encoded.g), b: clamp(encoded.b) };
+  const encoded = filter(rgb);
+  const fromEncoded: Rgb = { mode: "rgb", r: clamp(encoded.r), g: clamp(encoded.g), b: clamp(encoded.b) };
   // Linear reading: feed linear values through the same matrix, then read them back as linear.
-  const linear = toLinear(hex);
-  const simulated = filter({ mode: "rgb", r: linear.r, g: linear.g, b: linear.b });
-  const fromLinear: Color = { mode: "lrgb", r: clamp(simulated.r), g: clamp(simulated.g), b: clamp(simulated.b) };
+  const linear = toLinear(rgb);
+  const simulated = filter<Rgb>({ mode: "rgb", r: linear.r, g: linear.g, b: linear.b });
+  const fromLinear: Lrgb = { mode: "lrgb", r: clamp(simulated.r), g: clamp(simulated.g), b: clamp(simulated.b) };
   return [toLab(fromEncoded), toLab(fromLinear)];
 }
 
