@@ -2,6 +2,7 @@ import { axisPosition, axisTicks, logMinorTicks, paddedDomain, type AxisTick, ty
 import type { DatasetSeries, FigureData, PanelData, PredictionSeries, StripPoint } from "./compute-figure-data";
 import type { FigureProblem } from "./figure-inputs";
 import type { FigureModel } from "./figure-model";
+import type { SizePreset } from "./journal-presets";
 import { markerPath } from "./marker-path";
 
 /** Size of a rendered TeX label in pt. */
@@ -46,10 +47,6 @@ export interface BuiltFigure {
   /** Smallest text size and thinnest line drawn, pt, for the preset's checks. */
   smallestTextPt: number;
   thinnestLinePt: number;
-}
-
-export interface SizePreset {
-  widthMm: number;
 }
 
 export const PT_PER_MM = 72 / 25.4;

@@ -50,7 +50,7 @@ export function referenceInputs(): DatasetInputs {
 export function referenceModelInput(): FigureModelInput {
   return {
     version: 1,
-    preset: "generic-single",
+    preset: "single-column",
     panelHeightMm: 55,
     fontSizePt: 8,
     lineWidthPt: 0.6,
@@ -65,8 +65,8 @@ export function referenceModelInput(): FigureModelInput {
           { kind: "prediction", id: "qed", label: "\\mathrm{QED\\ Born}", process: "pair-annihilation", energy: { kind: "kinetic", value: 0.5, unit: "GeV" }, colour: "#1f5fa8", samples: 1000 },
           { kind: "prediction", id: "qed-alpha", label: "\\alpha = 1/130", process: "pair-annihilation", energy: { kind: "kinetic", value: 0.5, unit: "GeV" }, alpha: 1 / 130, colour: "#b4462c", dash: "dashed", samples: 1000 },
           { kind: "prediction", id: "qed-450", label: "T = 0.45\\ \\mathrm{GeV}", process: "pair-annihilation", energy: { kind: "kinetic", value: 0.45, unit: "GeV" }, colour: "#3c7d3a", dash: "dotted", samples: 1000 },
-          { kind: "dataset", id: "data-a", label: "\\mathrm{synthetic\\ A}", datasetId: REFERENCE_DATASET_IDS[0], revisionNumber: 1, colour: "#1b1a17", marker: "circle", compareWith: "qed" },
-          { kind: "dataset", id: "data-b", label: "\\mathrm{synthetic\\ B}", datasetId: REFERENCE_DATASET_IDS[1], revisionNumber: 1, colour: "#7a4fa0", marker: "square", compareWith: "qed" },
+          { kind: "dataset", id: "data-a", label: "\\mathrm{synthetic\\ A}", datasetId: REFERENCE_DATASET_IDS[0], revisionNumber: 1, colour: "#1b1a17", marker: "disc", compareWith: "qed" },
+          { kind: "dataset", id: "data-b", label: "\\mathrm{synthetic\\ B}", datasetId: REFERENCE_DATASET_IDS[1], revisionNumber: 1, colour: "#7a4fa0", marker: "open-square", compareWith: "qed" },
         ],
       },
     ],
