@@ -205,7 +205,8 @@ function drawYTicks(out: string[], ticks: AxisTick[], domain: [number, number], 
 
 /** Vega-Lite scale of an axis with a fixed domain: the figure's numbers decide, never vega's "nice". */
 function scaleOf(type: ScaleType, domain: [number, number]) {
-  return { type, domain, nice: false, zero: false, clamp: false };
+  // vega-lite warns about (and drops) "zero" on a log scale, so it is only set on a linear one.
+  return type === "log" ? { type, domain, nice: false, clamp: false } : { type, domain, nice: false, zero: false, clamp: false };
 }
 
 function markerSize(f: number) {

@@ -415,11 +415,16 @@ function autoXDomain(model: FigureModel, figureX: XCoordinate, xFactor: number, 
 function autoYDomain(model: FigureModel, panels: PanelData[]): [number, number] {
   const log = model.y.scale === "log";
   const values: number[] = [];
+  // With data, the range fits the data and the curves where the data are: a curve's divergence
+  // outside the measured range (θ → 0 of a t-channel process) must not squash the data.
+  const xs = panels.flatMap((panel) => panel.datasets.flatMap((d) => d.points.flatMap((p) => (p.bin ? p.bin : [p.x]))));
+  const [xLo, xHi] = xs.length > 0 ? [Math.min(...xs), Math.max(...xs)] : [-Infinity, Infinity];
+  const inRange = (x: number) => x >= xLo && x <= xHi;
   for (const panel of panels) {
     for (const d of panel.datasets) for (const p of d.points) values.push(p.y - p.total[0], p.y + p.total[1], p.y);
     for (const pr of panel.predictions) {
-      for (const c of pr.curve) values.push(c.y);
-      for (const b of pr.band ?? []) values.push(b.low, b.high);
+      for (const c of pr.curve) if (inRange(c.x)) values.push(c.y);
+      for (const b of pr.band ?? []) if (inRange(b.x)) values.push(b.low, b.high);
     }
   }
   const usable = values.filter((v) => Number.isFinite(v) && (!log || v > 0));
