@@ -21,6 +21,8 @@ export default [
     route(":manuscriptId/datasets/:datasetId/compare", "routes/revision-compare.tsx"),
     route(":manuscriptId/datasets/:datasetId/revisions/:number", "routes/revision.tsx"),
     route(":manuscriptId/datasets/:datasetId/revisions/:number/raw", "routes/revision-raw.ts"),
+    route(":manuscriptId/figures", "routes/figures.tsx"),
+    route(":manuscriptId/figures/:figureId", "routes/figure.tsx"),
   ]),
   ...prefix("admin", [
     route("accounts", "routes/admin-accounts.tsx"),
@@ -35,6 +37,9 @@ export default [
     route("manuscripts/:manuscriptId/datasets/:datasetId/revisions/:number", "routes/api/revision.ts"),
     route("manuscripts/:manuscriptId/datasets/:datasetId/revisions/:number/rows", "routes/api/revision-rows.ts"),
     route("manuscripts/:manuscriptId/datasets/:datasetId/revisions/:number/raw", "routes/api/revision-raw.ts"),
+    route("manuscripts/:manuscriptId/figures", "routes/api/figures.ts"),
+    route("figures/:figureId/draft", "routes/api/figure-draft.ts"),
+    route("figures/:figureId/draft.svg", "routes/api/figure-draft-svg.ts"),
     route("predictions", "routes/api/predictions.ts"),
     route("*", "routes/api/not-found.ts"),
   ]),

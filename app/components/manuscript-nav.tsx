@@ -25,6 +25,7 @@ export function ManuscriptNav({ manuscript, role, can }: Props) {
       <nav aria-label="Manuscript" className="mt-5 flex gap-6 text-sm">
         <NavLink end to={base} className={tab}>Overview</NavLink>
         <NavLink to={`${base}/datasets`} className={tab}>Datasets</NavLink>
+        <NavLink to={`${base}/figures`} className={tab}>Figures</NavLink>
         <NavLink to={`${base}/members`} className={tab}>Members</NavLink>
         {can["read:audit"] ? <NavLink to={`${base}/audit`} className={tab}>Activity log</NavLink> : null}
       </nav>

@@ -150,10 +150,10 @@ function parseFormFactor(v: unknown, definition: ProcessDefinition): FormFactorS
 }
 
 /**
- * Validates a prediction request (the prediction contract of the README plus the optional
+ * Validates a prediction request (docs/product.md "Prediction contract" plus the optional
  * fields of docs/decisions/0003-engine-conventions.md) and fills in the defaults. Throws
- * EngineInputError naming the field. Physics checks that need kinematics (thresholds, divergent angles, t ranges) are done when
- * the prediction is computed.
+ * EngineInputError naming the field. Physics checks that need kinematics (thresholds,
+ * divergent angles, t ranges) are done when the prediction is computed.
  */
 export function validatePredictionRequest(request: unknown): ValidatedRequest {
   if (!isRecord(request)) return fail("invalid_request", "", "the request must be a JSON object");

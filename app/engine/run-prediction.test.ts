@@ -16,7 +16,7 @@ function errorOf(request: unknown): EngineInputError {
   throw new Error(`expected an EngineInputError for ${JSON.stringify(request)}`);
 }
 
-describe("runPrediction: the prediction contract (README; request fields in docs/decisions/0003)", () => {
+describe("runPrediction: the prediction contract (docs/product.md; request fields in docs/decisions/0003)", () => {
   it("answers the contract's example request with one finite value per angle and the required fields", () => {
     const r = runPrediction(EXAMPLE_REQUEST);
     expect(r.engineVersion).toBe(ENGINE_VERSION);

@@ -136,7 +136,7 @@ function finite(values: number[], field: (i: number) => string): number[] {
 }
 
 /**
- * The prediction contract (README, "The prediction contract"; request fields in
+ * The prediction contract (docs/product.md, "Prediction contract"; request fields in
  * docs/decisions/0003-engine-conventions.md): validates the request, computes the values in the
  * requested unit and returns them with the engine version and the parameters' SHA-256
  * (docs/decisions/0007-parameters-hash-number-lists.md). Arrays of angle points go through the

@@ -2,6 +2,7 @@ import { axisPosition, axisTicks, logMinorTicks, paddedDomain, type AxisTick, ty
 import type { DatasetSeries, FigureData, PanelData, PredictionSeries, StripPoint } from "./compute-figure-data";
 import type { FigureProblem } from "./figure-inputs";
 import type { FigureModel } from "./figure-model";
+import type { SizePreset } from "./journal-presets";
 import { markerPath } from "./marker-path";
 
 /** Size of a rendered TeX label in pt. */
@@ -46,10 +47,6 @@ export interface BuiltFigure {
   /** Smallest text size and thinnest line drawn, pt, for the preset's checks. */
   smallestTextPt: number;
   thinnestLinePt: number;
-}
-
-export interface SizePreset {
-  widthMm: number;
 }
 
 export const PT_PER_MM = 72 / 25.4;
@@ -208,7 +205,8 @@ function drawYTicks(out: string[], ticks: AxisTick[], domain: [number, number], 
 
 /** Vega-Lite scale of an axis with a fixed domain: the figure's numbers decide, never vega's "nice". */
 function scaleOf(type: ScaleType, domain: [number, number]) {
-  return { type, domain, nice: false, zero: false, clamp: false };
+  // vega-lite warns about (and drops) "zero" on a log scale, so it is only set on a linear one.
+  return type === "log" ? { type, domain, nice: false, clamp: false } : { type, domain, nice: false, zero: false, clamp: false };
 }
 
 function markerSize(f: number) {

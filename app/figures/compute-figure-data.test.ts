@@ -20,7 +20,7 @@ function dataset(quantity: DatasetInput["quantity"], rows: DatasetInput["rows"])
 function model(x: Partial<FigureModelInput["x"]>, y: Partial<FigureModelInput["y"]>, prediction: Record<string, unknown>, extra: Record<string, unknown> = {}) {
   return figureModelSchema.parse({
     version: 1,
-    preset: "generic-single",
+    preset: "single-column",
     panelHeightMm: 50,
     fontSizePt: 8,
     lineWidthPt: 0.6,
@@ -33,7 +33,7 @@ function model(x: Partial<FigureModelInput["x"]>, y: Partial<FigureModelInput["y
         strip: "ratio",
         layers: [
           { kind: "prediction", id: "born", label: "Born", colour: "#000000", samples: 50, ...prediction },
-          { kind: "dataset", id: "data", label: "data", datasetId: ID, revisionNumber: 1, colour: "#000000", marker: "circle", ...extra },
+          { kind: "dataset", id: "data", label: "data", datasetId: ID, revisionNumber: 1, colour: "#000000", marker: "disc", ...extra },
         ],
       },
     ],

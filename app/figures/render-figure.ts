@@ -1,6 +1,7 @@
 import { buildFigure, type BuiltFigure } from "./build-figure";
 import { computeFigureData, type FigureData } from "./compute-figure-data";
 import type { DatasetInputs, FigureProblem } from "./figure-inputs";
+import { describeFigure } from "./figure-labels";
 import type { FigureModel } from "./figure-model";
 import { DEFAULT_PRESET_ID, findPreset } from "./journal-presets";
 import { renderFigureSvg, TexCache, type SvgMetadata } from "./render-figure-svg";
@@ -50,6 +51,8 @@ export async function renderFigure(model: FigureModel, inputs: DatasetInputs, me
     const failure = cache.failure(tex);
     return failure === undefined ? [] : [{ path, message: failure }];
   });
-  const svg = await renderFigureSvg(built, cache, metadata);
+  // Without alt text of the author's, the SVG carries the generated description.
+  const description = metadata.description.trim() !== "" ? metadata.description : describeFigure(model, { x: data.xDomain, y: data.yDomain });
+  const svg = await renderFigureSvg(built, cache, { ...metadata, description });
   return { svg, data, built: { ...built, problems }, problems, texErrors };
 }

@@ -1,24 +1,25 @@
 import { Link, useLoaderData } from "react-router";
 import type { Route } from "./+types/manuscript";
-import { db } from "~/.server/db.server";
-import { loadManuscriptPage } from "~/.server/manuscript-context.server";
-import { listMembers } from "~/.server/manuscripts.server";
+import { db } from "~/.server/platform/db.server";
+import { loadManuscriptPage } from "~/.server/manuscripts/manuscript-context.server";
+import { listFigures } from "~/.server/figures/figure-repository.server";
+import { listMembers } from "~/.server/manuscripts/manuscripts.server";
 import { ManuscriptNav } from "~/components/manuscript-nav";
 import { RoleTag } from "~/components/role-tag";
 import { Notice } from "~/components/ui/notice";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const page = await loadManuscriptPage(request, params.manuscriptId);
-  const members = await listMembers(db, params.manuscriptId);
-  return { ...page, members };
+  const [members, figures] = await Promise.all([listMembers(db, params.manuscriptId), listFigures(db, params.manuscriptId)]);
+  return { ...page, members, figures };
 }
 
 const STEPS = ["Data", "Predictions", "Composition", "Seal", "Sign-off", "Export"] as const;
-// Figures (composition, sealing, sign-off, export) are not built yet; the page says so.
-const AVAILABLE = new Set<string>(["Data", "Predictions"]);
+// Sealing, sign-off and export are not built yet; the page says so.
+const AVAILABLE = new Set<string>(["Data", "Predictions", "Composition"]);
 
 export default function ManuscriptOverview() {
-  const { manuscript, role, can, members } = useLoaderData<typeof loader>();
+  const { manuscript, role, can, members, figures } = useLoaderData<typeof loader>();
   return (
     <>
       <ManuscriptNav manuscript={manuscript} role={role} can={can} />
@@ -35,11 +36,29 @@ export default function ManuscriptOverview() {
               </li>
             ))}
           </ol>
-          <p className="mt-2 text-xs text-ink-faint">Steps 3–6 (figures, sealed versions, sign-off and export) are not available in this release yet.</p>
+          <p className="mt-2 text-xs text-ink-faint">Steps 4–6 (sealed versions, sign-off and export) are not available in this release yet.</p>
           <p className="mt-4 text-sm text-ink-soft">
             Start with the measured data: <Link className="underline underline-offset-4" to={`/manuscripts/${manuscript.id}/datasets`}>datasets of this manuscript</Link>.
             {" "}Theory curves come from the <Link className="underline underline-offset-4" to="/predictions">predictions</Link> engine.
           </p>
+          <h2 id="figures-title" className="mt-8 text-xl">Figures</h2>
+          {figures.length === 0 ? (
+            <p className="mt-2 text-sm text-ink-soft">No figures yet. <Link className="underline underline-offset-4" to={`/manuscripts/${manuscript.id}/figures`}>{can["edit:figure"] ? "Start one" : "Figures"}</Link></p>
+          ) : (
+            <table className="mt-3 w-full text-sm" aria-labelledby="figures-title">
+              <thead className="border-b border-rule text-left text-ink-soft"><tr><th className="py-1.5 font-medium">Title</th><th className="font-medium">Panels</th><th className="font-medium">State</th><th className="font-medium">Last edit</th></tr></thead>
+              <tbody className="divide-y divide-rule">
+                {figures.map((f) => (
+                  <tr key={f.id}>
+                    <td className="py-2"><Link className="font-serif hover:text-madder" to={`/manuscripts/${manuscript.id}/figures/${f.id}`}>{f.title}</Link></td>
+                    <td className="font-mono">{f.panelCount}</td>
+                    <td>draft <span className="font-mono text-ink-faint">rev {f.draft_revision}</span></td>
+                    <td className="text-ink-soft">{new Date(f.updated_at).toISOString().slice(0, 16).replace("T", " ")} UTC · {f.updatedByName}</td>
+                  </tr>
+                ))}
+              </tbody>
+            </table>
+          )}
         </section>
         <aside aria-labelledby="members-title">
           <h2 id="members-title" className="text-xl">Members</h2>

@@ -2,10 +2,10 @@ import { type ColumnDef, type SortingState, flexRender, getCoreRowModel, useReac
 import { Link, useLoaderData, useNavigate, useSearchParams } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/revision";
-import { loadRevisionPage } from "~/.server/dataset-access.server";
-import { revisionRowsPage } from "~/.server/dataset-repository.server";
+import { loadRevisionPage } from "~/.server/datasets/dataset-access.server";
+import { revisionRowsPage } from "~/.server/datasets/dataset-repository.server";
 import { ROW_SORTS } from "~/revision-row-sorts";
-import { db } from "~/.server/db.server";
+import { db } from "~/.server/platform/db.server";
 import { Fingerprint } from "~/components/fingerprint";
 import { Shape } from "~/components/ui/shape";
 import { ManuscriptNav } from "~/components/manuscript-nav";

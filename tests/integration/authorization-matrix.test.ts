@@ -19,6 +19,7 @@ let datasetId = "";
 let otherManuscriptId = "";
 let otherDatasetId = "";
 let targetMemberId = "";
+let figureId = "";
 let unique = 0;
 const fresh = () => ++unique;
 const AUTHORS: Who[] = ["contributor", "corresponding"];
@@ -50,7 +51,16 @@ beforeAll(async () => {
   otherDatasetId = await createDatasetViaApi(clients.corresponding, otherManuscriptId, "other data");
   const r1 = await clients.corresponding.upload(`/api/v1/manuscripts/${manuscriptId}/datasets/${datasetId}/revisions`, angularCsv());
   expect(r1.status).toBe(201);
+  const f = await clients.corresponding.postJson(`/api/v1/manuscripts/${manuscriptId}/figures`, { title: "matrix figure", from: { datasetId } });
+  expect(f.status).toBe(201);
+  figureId = ((await f.json()) as { figure: { id: string } }).figure.id;
 });
+
+/** The stored draft and its revision, so that an allowed save is never stale. */
+async function currentDraft() {
+  const row = await db.selectFrom("figure").select(["draft", "draft_revision"]).where("id", "=", figureId).executeTakeFirstOrThrow();
+  return { baseRevision: row.draft_revision, model: row.draft };
+}
 afterAll(() => db.destroy());
 
 interface Case {
@@ -166,10 +176,33 @@ const cases: Case[] = [
     name: "DELETE /api/v1/manuscripts/:id (a method it does not take)", allowed: [],
     call: (c) => c.request(`/api/v1/manuscripts/${manuscriptId}`, { method: "DELETE" }), denied: () => 405, anonymous: 401,
   },
+  // Figures (issue 8): every member reads, only authors (corresponding, contributor) edit.
+  { name: "GET /manuscripts/:id/figures", allowed: MEMBERS, call: (c) => c.get(`/manuscripts/${manuscriptId}/figures`), denied: pageDenied, anonymous: 302 },
+  {
+    name: "POST /manuscripts/:id/figures (create)", allowed: AUTHORS, okStatus: 302,
+    call: (c) => c.post(`/manuscripts/${manuscriptId}/figures`, { title: `page figure ${fresh()}`, start: datasetId }), denied: pageDenied, anonymous: 302,
+  },
+  { name: "GET /manuscripts/:id/figures/:f", allowed: MEMBERS, call: (c) => c.get(`/manuscripts/${manuscriptId}/figures/${figureId}`), denied: pageDenied, anonymous: 302 },
+  {
+    name: "POST /manuscripts/:id/figures/:f (save the draft)", allowed: AUTHORS,
+    call: async (c) => c.postJson(`/manuscripts/${manuscriptId}/figures/${figureId}`, await currentDraft()), denied: pageDenied, anonymous: 302,
+  },
+  { name: "GET /api/v1/manuscripts/:id/figures", allowed: MEMBERS, call: (c) => c.get(`/api/v1/manuscripts/${manuscriptId}/figures`), denied: apiDenied, anonymous: 401 },
+  {
+    name: "POST /api/v1/manuscripts/:id/figures", allowed: AUTHORS, okStatus: 201,
+    call: (c) => c.postJson(`/api/v1/manuscripts/${manuscriptId}/figures`, { title: `api figure ${fresh()}` }), denied: apiDenied, anonymous: 401,
+  },
+  { name: "GET /api/v1/figures/:f/draft", allowed: MEMBERS, call: (c) => c.get(`/api/v1/figures/${figureId}/draft`), denied: apiDenied, anonymous: 401 },
+  {
+    name: "PUT /api/v1/figures/:f/draft", allowed: AUTHORS,
+    call: async (c) => c.request(`/api/v1/figures/${figureId}/draft`, { method: "PUT", headers: { "content-type": "application/json" }, body: JSON.stringify(await currentDraft()) }),
+    denied: apiDenied, anonymous: 401,
+  },
+  { name: "GET /api/v1/figures/:f/draft.svg", allowed: MEMBERS, call: (c) => c.get(`/api/v1/figures/${figureId}/draft.svg`), denied: apiDenied, anonymous: 401 },
   { name: "GET /api/v1/…/revisions/1/raw", allowed: READERS_OF_RAW, call: (c) => c.get(`/api/v1/manuscripts/${manuscriptId}/datasets/${datasetId}/revisions/1/raw`), denied: apiDenied, anonymous: 401 },
 ];
 
-describe("authorisation matrix (foundation and dataset routes)", () => {
+describe("authorisation matrix (foundation, dataset and figure routes)", () => {
   for (const k of cases) {
     it(`${k.name}: allowed exactly for ${k.allowed.join(", ")}`, async () => {
       const got: Record<string, number> = {};

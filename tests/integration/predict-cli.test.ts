@@ -1,6 +1,6 @@
-// `bin/predict`, what `npm run --silent predict` calls (README, "The prediction contract"): the
-// request on standard input, the response JSON alone on standard output, exit status 2 with the
-// error JSON for bad input; the same bytes as the HTTP API and as scripts/predict.ts run from
+// `bin/predict`, what `npm run --silent predict` calls (docs/product.md "Prediction contract"):
+// the request on standard input, the response JSON alone on standard output, exit status 2 with
+// the error JSON for bad input; the same bytes as the HTTP API and as scripts/predict.ts run from
 // source for the same request; its bundle rebuilt when an input changes.
 import { spawn } from "node:child_process";
 import { statSync, utimesSync } from "node:fs";

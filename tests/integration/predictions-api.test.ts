@@ -1,4 +1,4 @@
-// The prediction contract over HTTP (README, "The prediction contract"), against the running app:
+// The prediction contract over HTTP (docs/product.md "Prediction contract"), against the running app:
 // who may call it, the shape and determinism of the answer, values against published closed
 // forms computed here, and one 422 per kind of bad input naming the field to change.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";

@@ -4,6 +4,7 @@
 import { runPrediction } from "~/engine";
 import { seededRandom } from "~/engine/testing/seeded-random";
 import { datasetInputKey, type DatasetInput, type DatasetInputs } from "../figure-inputs";
+import { colourFor } from "../palette";
 import { figureModelSchema, type FigureModel, type FigureModelInput } from "../figure-model";
 
 
@@ -50,7 +51,7 @@ export function referenceInputs(): DatasetInputs {
 export function referenceModelInput(): FigureModelInput {
   return {
     version: 1,
-    preset: "generic-single",
+    preset: "single-column",
     panelHeightMm: 55,
     fontSizePt: 8,
     lineWidthPt: 0.6,
@@ -62,11 +63,11 @@ export function referenceModelInput(): FigureModelInput {
         id: "main",
         strip: "ratio",
         layers: [
-          { kind: "prediction", id: "qed", label: "\\mathrm{QED\\ Born}", process: "pair-annihilation", energy: { kind: "kinetic", value: 0.5, unit: "GeV" }, colour: "#1f5fa8", samples: 1000 },
-          { kind: "prediction", id: "qed-alpha", label: "\\alpha = 1/130", process: "pair-annihilation", energy: { kind: "kinetic", value: 0.5, unit: "GeV" }, alpha: 1 / 130, colour: "#b4462c", dash: "dashed", samples: 1000 },
-          { kind: "prediction", id: "qed-450", label: "T = 0.45\\ \\mathrm{GeV}", process: "pair-annihilation", energy: { kind: "kinetic", value: 0.45, unit: "GeV" }, colour: "#3c7d3a", dash: "dotted", samples: 1000 },
-          { kind: "dataset", id: "data-a", label: "\\mathrm{synthetic\\ A}", datasetId: REFERENCE_DATASET_IDS[0], revisionNumber: 1, colour: "#1b1a17", marker: "circle", compareWith: "qed" },
-          { kind: "dataset", id: "data-b", label: "\\mathrm{synthetic\\ B}", datasetId: REFERENCE_DATASET_IDS[1], revisionNumber: 1, colour: "#7a4fa0", marker: "square", compareWith: "qed" },
+          { kind: "prediction", id: "qed", label: "\\mathrm{QED\\ Born}", process: "pair-annihilation", energy: { kind: "kinetic", value: 0.5, unit: "GeV" }, colour: colourFor(0), samples: 1000 },
+          { kind: "prediction", id: "qed-alpha", label: "\\alpha = 1/130", process: "pair-annihilation", energy: { kind: "kinetic", value: 0.5, unit: "GeV" }, alpha: 1 / 130, colour: colourFor(1), dash: "dashed", samples: 1000 },
+          { kind: "prediction", id: "qed-450", label: "T = 0.45\\ \\mathrm{GeV}", process: "pair-annihilation", energy: { kind: "kinetic", value: 0.45, unit: "GeV" }, colour: colourFor(3), dash: "dotted", samples: 1000 },
+          { kind: "dataset", id: "data-a", label: "\\mathrm{synthetic\\ A}", datasetId: REFERENCE_DATASET_IDS[0], revisionNumber: 1, colour: "#1b1a17", marker: "disc", compareWith: "qed" },
+          { kind: "dataset", id: "data-b", label: "\\mathrm{synthetic\\ B}", datasetId: REFERENCE_DATASET_IDS[1], revisionNumber: 1, colour: colourFor(2), marker: "open-square", compareWith: "qed" },
         ],
       },
     ],
