@@ -6,7 +6,7 @@
 // table, then one JSON line of figures (units in the key names) as the very last line.
 import { execFileSync, spawn, spawnSync } from "node:child_process";
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
-import { tmpdir } from "node:os";
+import { loadavg, tmpdir } from "node:os";
 import { join } from "node:path";
 import { createInterface } from "node:readline";
 import { evaluateAngles } from "../app/engine/evaluate-angles";
@@ -38,6 +38,8 @@ function ensureNumpy(): void {
 // as a request arriving at the API or the command line would be
 const grid = (n: number): number[] => JSON.parse(JSON.stringify(Array.from({ length: n }, (_, i) => 0.5 + (179 * (i + 0.5)) / n)));
 const points: Record<number, number[]> = { [SMALL]: grid(SMALL), [LARGE]: grid(LARGE) };
+// the machine's load when the run starts and ends: figures taken under other work are slower
+const loadAtStart = loadavg()[0];
 
 ensureNumpy();
 const dir = mkdtempSync(join(tmpdir(), "bench-engine-"));
@@ -186,6 +188,15 @@ for (let r = 0; r < 15; r++) {
   binTimes.push(now() - t0);
 }
 
+// what a fresh array of 10⁶ numbers costs here (the result array that every 10⁶-angle request
+// allocates; mostly the first touch of its memory): a copy of the points
+const freshArray: number[] = [];
+for (let r = 0; r < REPEATS; r++) {
+  const t0 = now();
+  points[LARGE].slice();
+  freshArray.push(now() - t0);
+}
+
 // bin/predict, a three-angle request, wall time of the whole process
 const cliRequest = JSON.stringify({ process: "compton", frame: "lab", energy: { beam: 1, unit: "MeV" }, thetaDeg: [30, 60, 90], unit: "mb/sr" });
 const cliRun = () => {
@@ -198,6 +209,7 @@ cliRun(); // builds the bundle if needed
 const cliTimes = Array.from({ length: 5 }, cliRun);
 
 const fmt = (x: number, digits = 3) => x.toPrecision(digits);
+const loadAtEnd = loadavg()[0];
 console.log(`runPrediction (θ in degrees → dσ/dΩ in ${UNIT}), one core; 10³: mean of ${SMALL_BATCH} calls, 10⁶: one call; medians of ${REPEATS}, alternating with numpy`);
 console.log("process                 frame   10³ µs  numpy µs │ 10⁶ ms  validate  evaluate  hash │ numpy eval  numpy all │ angles/s  evaluations/s  ratio  eval ratio");
 for (const r of rows) {
@@ -220,8 +232,10 @@ console.log(
     `evaluation ${worst.evaluationPerS.toExponential(2)}/s, ratio to numpy ${fmt(worst.ratio)} end to end and ${fmt(worst.evalRatio)} for the evaluation; ` +
     `largest relative difference of the values ${worst.difference.toExponential(2)}`,
 );
+console.log(`a fresh array of 10⁶ numbers (part of every evaluation above): ${fmt(median(freshArray))} ms (median of ${REPEATS})`);
 console.log(`200-bin bin-averaged curve (pair-annihilation, lab): ${fmt(median(binTimes))} ms (median of 15)`);
 console.log(`bin/predict, three angles: ${fmt(median(cliTimes))} ms wall (median of 5)`);
+console.log(`load average (1 min) at the start and the end of the run: ${loadAtStart.toFixed(2)}, ${loadAtEnd.toFixed(2)}`);
 
 const figures: Record<string, number> = {};
 for (const r of rows) {
@@ -238,7 +252,10 @@ Object.assign(figures, {
   max_ratio_vs_numpy: Number(fmt(worst.ratio)),
   max_evaluation_ratio_vs_numpy: Number(fmt(worst.evalRatio)),
   numpy_max_relative_difference: worst.difference,
+  fresh_array_1e6_ms: Number(fmt(median(freshArray))),
   bin_avg_200_ms: Number(fmt(median(binTimes))),
   predict_cli_3_angles_ms: Number(fmt(median(cliTimes))),
+  load_average_start: Number(loadAtStart.toFixed(2)),
+  load_average_end: Number(loadAtEnd.toFixed(2)),
 });
 console.log(JSON.stringify(figures));
