@@ -1,0 +1,102 @@
+import { createHash } from "node:crypto";
+import { parse } from "csv-parse/sync";
+import { beforeAll, describe, expect, it } from "vitest";
+import { canonicalJson } from "~/engine";
+import { computeFigureData, type FigureData } from "~/figures/compute-figure-data";
+import { datasetInputKey } from "~/figures/figure-inputs";
+import type { FigureModel } from "~/figures/figure-model";
+import { REFERENCE_DATASET_IDS, referenceInputs, referenceModel } from "~/figures/testing/reference-figure";
+import { plottedDataCsv, predictionTableCsv } from "./data-tables";
+import { figureCsvFiles, type FigureCsvFile } from "./figure-tables";
+
+const inputs = referenceInputs();
+let model: FigureModel;
+let data: FigureData;
+let files: FigureCsvFile[];
+beforeAll(() => {
+  model = referenceModel();
+  data = computeFigureData(model, inputs);
+  files = figureCsvFiles(model, data);
+});
+
+/** Header comments as key → parsed JSON value, and the table read by csv-parse (an independent reader). */
+function read(text: string) {
+  const comments = new Map<string, unknown>();
+  for (const line of text.split("\r\n")) {
+    const m = /^# ([a-z0-9_ ]+): (.*)$/.exec(line);
+    if (m) comments.set(m[1], JSON.parse(m[2]));
+  }
+  const [header, ...rows] = parse(text, { comment: "#", comment_no_infix: true }) as string[][];
+  return { comments, header, rows };
+}
+
+describe("figureCsvFiles on the reference figure", () => {
+  it("writes one table per dataset revision and one per prediction, named after the layers", () => {
+    expect(files.map((f) => f.name)).toEqual(["data-data-a.csv", "data-data-b.csv", "prediction-qed.csv", "prediction-qed-alpha.csv", "prediction-qed-450.csv"]);
+    for (const f of files) expect(f.description.length).toBeGreaterThan(10);
+  });
+
+  it("gives each plotted point with its bin, stat error and total error (stat and syst in quadrature) in the figure's unit", () => {
+    const { comments, header, rows } = read(files[0].text);
+    expect(header).toEqual(["x [deg]", "x_low [deg]", "x_high [deg]", "y [ub/sr]", "stat_down [ub/sr]", "stat_up [ub/sr]", "total_down [ub/sr]", "total_up [ub/sr]"]);
+    const input = inputs[datasetInputKey(REFERENCE_DATASET_IDS[0], 1)];
+    expect(comments.get("dataset")).toBe("synthetic A");
+    expect(comments.get("dataset id")).toBe(REFERENCE_DATASET_IDS[0]);
+    expect(comments.get("revision")).toBe(1);
+    expect(comments.get("content sha256")).toBe(input.contentHash);
+    expect(comments.get("x")).toBe("theta (lab)");
+    expect(rows).toHaveLength(500);
+    // Rows are stored in natural units (GeV^-2/sr); the figure draws ub/sr. The factor is
+    // (hbar c)^2 = 0.3893793721 GeV^2 mb (CODATA 2018, as quoted by the PDG), i.e. 389.3793721 ub
+    // per GeV^-2. x is θ lab in degrees in both. The total error is √(stat² + syst²) by definition.
+    const UB_PER_INVERSE_GEV2 = 389.3793721;
+    const close = (got: number, want: number) => Math.abs(got - want) <= 1e-9 * Math.abs(want);
+    input.rows.forEach((r, i) => {
+      const got = rows[i].map(Number);
+      expect(got.slice(0, 3)).toEqual([r.x, r.xLow, r.xHigh]);
+      const want = [r.y, r.statMinus!, r.statPlus!, Math.hypot(r.statMinus!, r.systMinus!), Math.hypot(r.statPlus!, r.systPlus!)].map((v) => v * UB_PER_INVERSE_GEV2);
+      want.forEach((w, k) => expect(close(got[3 + k], w), `row ${i} column ${header[3 + k]}: got ${got[3 + k]}, expected ${w}, tolerance 1e-9 relative`).toBe(true));
+    });
+    // And the file holds the plotted numbers exactly, to the last bit.
+    expect(rows.map((r) => r.map((c) => (c === "" ? null : Number(c))))).toEqual(
+      data.panels[0].datasets[0].points.map((p) => [p.x, p.bin![0], p.bin![1], p.y, p.stat[0], p.stat[1], p.total[0], p.total[1]]),
+    );
+  });
+
+  it("gives each prediction's curve with the engine version, its parameters and their SHA-256, which match", () => {
+    const series = data.panels[0].predictions[1];
+    const { comments, header, rows } = read(files[3].text);
+    expect(header).toEqual(["x [deg]", "y [ub/sr]"]);
+    expect(comments.get("prediction")).toBe("qed-alpha");
+    expect(comments.get("label")).toBe("\\alpha = 1/130");
+    expect(comments.get("engine version")).toBe(series.engineVersion);
+    const parameters = comments.get("parameters") as { alpha: number; unit: string };
+    expect(parameters.alpha).toBe(1 / 130);
+    expect(parameters.unit).toBe("ub/sr");
+    // The hash recomputed here with node:crypto over the canonical JSON of the parameters as read
+    // back from the file (the engine hashes with @noble/hashes).
+    const hash = createHash("sha256").update(canonicalJson(parameters), "utf8").digest("hex");
+    expect(comments.get("parameters sha256")).toBe(hash);
+    expect(hash).toBe(series.parametersHash);
+    expect(rows.map((r) => r.map(Number))).toEqual(series.curve.map((p) => [p.x, p.y]));
+  });
+});
+
+describe("the table writers", () => {
+  it("leave the x bin empty for a point measurement and write a band's edges beside the curve", () => {
+    const axis = { x: { name: "theta (CM)", unit: "deg" }, y: { name: "dsigma/dOmega (CM)", unit: "nb/sr" } };
+    const plotted = plottedDataCsv({
+      datasetName: "=cmd", datasetId: "d", revisionNumber: 2, revisionId: "r", contentHash: "f".repeat(64), ...axis,
+      rows: [{ x: 90, bin: null, y: 1.5, stat: [0.1, 0.2], total: [0.3, 0.4] }],
+    });
+    expect(read(plotted).rows).toEqual([["90", "", "", "1.5", "0.1", "0.2", "0.3", "0.4"]]);
+    expect(read(plotted).comments.get("dataset")).toBe("=cmd");
+    expect(plotted).toContain('# dataset: "\\u003dcmd"');
+
+    const table = { layerId: "p", label: "p", engineVersion: "0.1.0", parameters: { a: 1 }, parametersHash: "0".repeat(64), ...axis, curve: [{ x: 1, y: 2 }, { x: 3, y: 4 }] };
+    const banded = read(predictionTableCsv({ ...table, band: [{ low: 1.5, high: 2.5 }, { low: 3.5, high: 4.5 }] }));
+    expect(banded.header).toEqual(["x [deg]", "y [nb/sr]", "y_low [nb/sr]", "y_high [nb/sr]"]);
+    expect(banded.rows).toEqual([["1", "2", "1.5", "2.5"], ["3", "4", "3.5", "4.5"]]);
+    expect(() => predictionTableCsv({ ...table, band: [{ low: 1, high: 2 }] })).toThrow(/1 band points for 2 curve points/);
+  });
+});
