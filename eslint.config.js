@@ -24,4 +24,9 @@ export default tseslint.config(
     ignores: ["app/engine/**/*.test.ts", "app/engine/testing/**"],
     rules: { "no-restricted-imports": ["error", pureRestriction] },
   },
+  {
+    files: ["app/exports/**/*.ts"],
+    ignores: ["app/exports/**/*.test.ts"],
+    rules: { "no-restricted-imports": ["error", pureRestriction] },
+  },
 );

@@ -10,7 +10,7 @@ const TAG_RULES: { pattern: RegExp; problem: string }[] = [
   { pattern: /^<foreignObject[\s>/]/i, problem: "a <foreignObject> element" },
   { pattern: /^<(image|feImage)[\s>/]/i, problem: "an embedded or linked image" },
   { pattern: /^<!(ENTITY|DOCTYPE)/i, problem: "a DOCTYPE or entity declaration" },
-  { pattern: /\shref\s*=\s*["'](?!#)/i, problem: "a link to something outside the file (href not starting with #)" },
+  { pattern: /[\s:]href\s*=\s*["'](?!#)/i, problem: "a link to something outside the file (href not starting with #)" },
   { pattern: /url\(\s*["']?(?!#)/i, problem: "a url() outside the file" },
   { pattern: /\son[a-z]+\s*=/i, problem: "an event handler attribute" },
 ];

@@ -1,8 +1,8 @@
 // The figure's SVG as a PNG at the preset's resolution (docs/decisions/0009-export-rendering.md).
 import { crc32 } from "node:zlib";
 import { Resvg } from "@resvg/resvg-js";
-import { pngChunks } from "./png-chunks.server";
 import { assertSelfContainedSvg, assertTextAsOutlines } from "~/exports/self-contained-svg";
+import { pngChunks } from "./png-chunks.server";
 
 export interface PngOptions {
   /** The figure's size, pt. */
