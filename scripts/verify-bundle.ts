@@ -20,13 +20,14 @@ try {
 
 const result = verifyBundle(zip);
 const width = Math.max(10, ...result.files.map((f) => f.status.length));
+const nameWidth = Math.max(0, ...result.files.map((f) => f.name.length));
 for (const f of result.files) {
   const detail =
     f.status === "ok" ? `sha256 ${f.actual}`
     : f.status === "differs" ? `sha256 ${f.actual}, manifest says ${f.expected}`
     : f.status === "missing" ? `listed in manifest.json (sha256 ${f.expected}) but not in the zip`
     : `in the zip (sha256 ${f.actual}) but not listed in manifest.json`;
-  process.stdout.write(`${f.status.padEnd(width)}  ${f.name}  ${detail}\n`);
+  process.stdout.write(`${f.status.padEnd(width)}  ${f.name.padEnd(nameWidth)}  ${detail}\n`);
 }
 for (const p of result.problems) process.stdout.write(`${"problem".padEnd(width)}  ${p}\n`);
 const bad = result.files.filter((f) => f.status !== "ok").length;

@@ -4,8 +4,8 @@ import { beforeAll, describe, expect, it } from "vitest";
 import { canonicalJson } from "~/engine";
 import { computeFigureData, type FigureData } from "~/figures/compute-figure-data";
 import { datasetInputKey } from "~/figures/figure-inputs";
-import type { FigureModel } from "~/figures/figure-model";
-import { REFERENCE_DATASET_IDS, referenceInputs, referenceModel } from "~/figures/testing/reference-figure";
+import { figureModelSchema, type FigureModel } from "~/figures/figure-model";
+import { REFERENCE_DATASET_IDS, referenceInputs, referenceModel, referenceModelInput } from "~/figures/testing/reference-figure";
 import { plottedDataCsv, predictionTableCsv } from "./data-tables";
 import { figureCsvFiles, type FigureCsvFile } from "./figure-tables";
 
@@ -31,8 +31,8 @@ function read(text: string) {
 }
 
 describe("figureCsvFiles on the reference figure", () => {
-  it("writes one table per dataset revision and one per prediction, named after the layers", () => {
-    expect(files.map((f) => f.name)).toEqual(["data-data-a.csv", "data-data-b.csv", "prediction-qed.csv", "prediction-qed-alpha.csv", "prediction-qed-450.csv"]);
+  it("writes one table per dataset revision and one per prediction, named after the revision and the layer", () => {
+    expect(files.map((f) => f.name)).toEqual(["data-synthetic-a-r1.csv", "data-synthetic-b-r1.csv", "prediction-qed.csv", "prediction-qed-alpha.csv", "prediction-qed-450.csv"]);
     for (const f of files) expect(f.description.length).toBeGreaterThan(10);
   });
 
@@ -79,6 +79,22 @@ describe("figureCsvFiles on the reference figure", () => {
     expect(comments.get("parameters sha256")).toBe(hash);
     expect(hash).toBe(series.parametersHash);
     expect(rows.map((r) => r.map(Number))).toEqual(series.curve.map((p) => [p.x, p.y]));
+  });
+});
+
+describe("figureCsvFiles on two panels", () => {
+  it("writes a revision plotted in both panels once, and each panel's predictions apart", () => {
+    const input = referenceModelInput();
+    const second = {
+      ...input.panels[0],
+      id: "second",
+      layers: input.panels[0].layers.map((l) => (l.kind === "dataset" ? { ...l, id: `${l.id}-2`, compareWith: "qed-2" } : { ...l, id: `${l.id}-2` })),
+    };
+    const twoPanels = figureModelSchema.parse({ ...input, panels: [input.panels[0], second] });
+    const names = figureCsvFiles(twoPanels, computeFigureData(twoPanels, inputs)).map((f) => f.name);
+    expect(names.filter((n) => n.startsWith("data-"))).toEqual(["data-synthetic-a-r1.csv", "data-synthetic-b-r1.csv"]);
+    expect(names.filter((n) => n.startsWith("prediction-"))).toHaveLength(6);
+    expect(new Set(names).size).toBe(names.length);
   });
 });
 

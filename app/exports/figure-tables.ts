@@ -49,8 +49,8 @@ export interface FigureCsvFile {
 }
 
 /**
- * One CSV per dataset revision as plotted and one per drawn prediction, named after the layer
- * (`data-<layer>.csv`, `prediction-<layer>.csv`). A prediction's parameters are the engine's
+ * One CSV per dataset revision as plotted (`data-<dataset>-r<revision>.csv`) and one per drawn
+ * prediction (`prediction-<layer id>.csv`). A prediction's parameters are the engine's
  * after defaults, taken again from the engine for the stored request, so that the hash in the
  * file is the hash of the parameters in the file.
  */
@@ -72,9 +72,13 @@ export function figureCsvFiles(model: FigureModel, data: FigureData): FigureCsvF
         y,
         rows: series.points,
       };
+      const name = `data-${fileSlug(input.datasetName)}-r${input.revisionNumber}.csv`;
+      const text = plottedDataCsv(table);
+      // The same revision in two panels plots the same points: one file.
+      if (files.some((f) => f.name === name && f.text === text)) continue;
       files.push({
-        name: `data-${fileSlug(series.layer.id)}.csv`,
-        text: plottedDataCsv(table),
+        name,
+        text,
         description: `dataset "${input.datasetName}", revision ${input.revisionNumber}, as plotted (figure axes and unit)`,
       });
     }

@@ -118,13 +118,13 @@ describe("verifyBundle", () => {
 
   it("names a CSV with one byte changed", () => {
     const tampered = repacked((e) => {
-      const csv = e["data-data-a.csv"];
+      const csv = e["data-synthetic-a-r1.csv"];
       const at = csv.length - 5;
       csv[at] = csv[at] === 0x31 ? 0x32 : 0x31;
     });
     const result = verifyBundle(tampered);
     expect(result.ok).toBe(false);
-    expect(result.files.filter((f) => f.status !== "ok")).toEqual([expect.objectContaining({ name: "data-data-a.csv", status: "differs" })]);
+    expect(result.files.filter((f) => f.status !== "ok")).toEqual([expect.objectContaining({ name: "data-synthetic-a-r1.csv", status: "differs" })]);
   });
 
   it("names a file removed and a file added", () => {
