@@ -1,7 +1,7 @@
 import { Links, Meta, Outlet, Scripts, ScrollRestoration, isRouteErrorResponse, useRouteLoaderData } from "react-router";
 import type { Route } from "./+types/root";
 import "./app.css";
-import { optionalUser } from "./.server/guards.server";
+import { optionalUser } from "./.server/platform/http/guards.server";
 import { SiteHeader } from "./components/site-header";
 import { ErrorPage } from "./components/error-page";
 

@@ -1,4 +1,4 @@
-// Seeds the invented demonstration scenario (DESIGN.md): a fictional fixed-target collaboration
+// Seeds the invented demonstration scenario (docs/product.md, "Demo scenario"): a fictional fixed-target collaboration
 // studying positron annihilation in flight, plus a two-photon analysis of charged-pion pairs.
 // Idempotent: a second run changes nothing.
 import bcrypt from "bcryptjs";
@@ -69,8 +69,8 @@ if (isMain) {
   const run = async () => {
     const { created } = await seedDemo(db);
     // The datasets go through the app's own ingest path (storage, validation, COPY).
-    const { seedDemoDatasets } = await import("../app/.server/demo-datasets.server");
-    const { db: appDb } = await import("../app/.server/db.server");
+    const { seedDemoDatasets } = await import("../app/.server/datasets/demo-datasets.server");
+    const { db: appDb } = await import("../app/.server/platform/db.server");
     const carla = await db.selectFrom("app_user").select("id").where("email", "=", "carla.corresponding@example.org").executeTakeFirstOrThrow();
     const datasets = await seedDemoDatasets(appDb, DEMO_MANUSCRIPT_ID, carla.id);
     await appDb.destroy();

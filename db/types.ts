@@ -1,6 +1,8 @@
 import type { ColumnType, Generated, Insertable, Selectable, Updateable } from "kysely";
+import type { MemberRole } from "../app/permissions";
 
-// The typed database interface; kept by hand beside the migrations in db/migrations.
+// The typed database interface; kept by hand beside the migrations in db/migrations, and
+// compared with the migrated schema by tests/integration/db-types.test.ts.
 // Kysely's Generated<> does not unwrap a ColumnType, so the variants are spelled out.
 type Timestamp = ColumnType<Date, Date | string, Date | string>;
 type GeneratedTimestamp = ColumnType<Date, Date | string | undefined, Date | string>;
@@ -11,7 +13,8 @@ type NullableJson = ColumnType<unknown, string | null | undefined, string | null
 
 export type SiteRole = "member" | "admin";
 export type UserStatus = "pending" | "active" | "disabled";
-export type MemberRole = "corresponding" | "coauthor" | "contributor" | "observer";
+// The member roles are defined once, beside the permission matrix that gives them meaning.
+export type { MemberRole };
 
 export interface AppUserTable {
   id: Generated<string>;

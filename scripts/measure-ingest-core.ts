@@ -10,7 +10,8 @@ import { mkdtemp, rm } from "node:fs/promises";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
-import { ingestCsv } from "../app/.server/datasets/ingest-csv.server";
+import { ingestCsv } from "../app/.server/datasets/csv/ingest-csv.server";
+import { seededRandom } from "../app/engine/testing/seeded-random";
 
 const MAPPING = {
   x: "theta",
@@ -26,8 +27,7 @@ const QUANTITY = { x: { kind: "theta_cm_deg" }, y: { kind: "dsigma_domega", unit
 async function writeSyntheticCsv(file: string, rows: number): Promise<void> {
   const out = createWriteStream(file);
   out.write("theta_low,theta_high,theta,dsigma,stat,syst_minus,syst_plus\n");
-  let seed = 12345;
-  const random = () => ((seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31);
+  const random = seededRandom(12345);
   let buffer = "";
   for (let i = 0; i < rows; i++) {
     const lo = (i * 180) / rows;

@@ -10,6 +10,7 @@ export { MAX_LISTED_PROBLEMS } from "./problem-collector";
 export { normalFormColumns, normalFormHeader, normalFormRow, ROW_SLOTS, SLOT } from "./normal-form";
 export {
   ENERGY_UNITS,
+  NATURAL_Y_UNIT,
   quantitySchema,
   T_UNITS,
   X_KINDS,

@@ -1,14 +1,12 @@
 import type { ColumnMapping } from "./column-mapping";
 import type { QuantityDescription } from "./quantity";
-import { Y_DIMENSIONS } from "./quantity";
+import { NATURAL_Y_UNIT } from "./quantity";
 import type { QuantityScales } from "./quantity-scales";
 
 /** Slots of a normalised row, in the order the normal form writes them. */
 export const ROW_SLOTS = ["x", "xLow", "xHigh", "y", "statMinus", "statPlus", "systMinus", "systPlus"] as const;
 export type RowSlot = (typeof ROW_SLOTS)[number];
 export const SLOT = { x: 0, xLow: 1, xHigh: 2, y: 3, statMinus: 4, statPlus: 5, systMinus: 6, systPlus: 7 } as const;
-
-const NATURAL_Y_UNIT = { area: "GeV^-2", "area/sr": "GeV^-2/sr", "area/GeV2": "GeV^-4" } as const;
 
 /**
  * The first lines of the normal form: the format version, what x and y are in canonical
@@ -21,7 +19,7 @@ export function normalFormHeader(mapping: ColumnMapping, quantity: QuantityDescr
   return (
     "steradian-dataset-normal-form/1\n" +
     `x=${quantity.x.kind} [${scales.xCanonicalUnit}]\n` +
-    `y=${quantity.y.kind} [${NATURAL_Y_UNIT[Y_DIMENSIONS[quantity.y.kind]]}]\n` +
+    `y=${quantity.y.kind} [${NATURAL_Y_UNIT[quantity.y.kind]}]\n` +
     `columns=${columns.join(",")}\n`
   );
 }

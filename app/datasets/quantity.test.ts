@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { columnMappingSchema } from "./column-mapping";
-import { quantitySchema } from "./quantity";
+import { parseUnit } from "~/engine/units";
+import { NATURAL_Y_UNIT, quantitySchema, Y_DIMENSIONS, Y_KINDS } from "./quantity";
 
 const issues = (r: { success: boolean; error?: { issues: { path: PropertyKey[]; message: string }[] } }) =>
   r.error?.issues.map((i) => [i.path.join("."), i.message]) ?? [];
@@ -67,5 +68,15 @@ describe("columnMappingSchema", () => {
   it("refuses blank names and a missing y", () => {
     expect(columnMappingSchema.safeParse({ x: " ", y: "y" }).success).toBe(false);
     expect(columnMappingSchema.safeParse({ x: "x" }).success).toBe(false);
+  });
+});
+
+describe("NATURAL_Y_UNIT", () => {
+  it("names, for every y kind, a unit of the kind's dimension that the engine takes as its natural unit (factor 1)", () => {
+    for (const kind of Y_KINDS) {
+      const unit = parseUnit(NATURAL_Y_UNIT[kind]);
+      expect(unit.dimension, kind).toBe(Y_DIMENSIONS[kind]);
+      expect(unit.toNatural, kind).toBe(1);
+    }
   });
 });

@@ -47,6 +47,18 @@ export const Y_DIMENSIONS: Record<YKind, UnitDimension> = {
   sigma: "area",
 };
 
+/**
+ * The unit in which a revision stores y: the engine's natural unit (GeV⁻², per sr or per GeV²
+ * where the kind asks for it). Part of the dataset normal form (docs/decisions/0004), so the
+ * spelling must not change.
+ */
+export const NATURAL_Y_UNIT: Record<YKind, string> = {
+  dsigma_domega: "GeV^-2/sr",
+  dsigma_dcos: "GeV^-2",
+  dsigma_dt: "GeV^-4",
+  sigma: "GeV^-2",
+};
+
 const Y_UNIT_EXAMPLES: Record<YKind, string> = {
   dsigma_domega: "nb/sr, ub/sr, pb/sr or GeV^-2/sr",
   dsigma_dcos: "nb, ub, pb or GeV^-2",

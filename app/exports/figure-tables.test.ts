@@ -19,6 +19,27 @@ beforeAll(() => {
   files = figureCsvFiles(model, data);
 });
 
+type NumberLists = { points: number[] | null; bins: [number, number][] | null } | null;
+type HashedParameters = { angle: NumberLists; scan: NumberLists; [key: string]: unknown };
+
+/**
+ * parametersHash as docs/decisions/0007 defines it: SHA-256 of the canonical JSON (0003) of the
+ * parameters with each number list replaced by {"float64leSha256": SHA-256 of its numbers as
+ * IEEE 754 binary64 little-endian, −0 as +0, bins flattened low, high, …}.
+ */
+function parametersHashPerDecision0007(p: HashedParameters): string {
+  const sha = (bytes: Buffer | string) => createHash("sha256").update(bytes).digest("hex");
+  const digest = (list: number[] | [number, number][] | null) => {
+    if (list === null) return null;
+    const flat = (list as (number | [number, number])[]).flatMap((v) => (typeof v === "number" ? [v] : v));
+    const bytes = Buffer.alloc(8 * flat.length);
+    flat.forEach((v, i) => bytes.writeDoubleLE(v + 0, 8 * i));
+    return { float64leSha256: sha(bytes) };
+  };
+  const lists = (l: NumberLists) => (l === null ? null : { ...l, points: digest(l.points), bins: digest(l.bins) });
+  return sha(Buffer.from(canonicalJson({ ...p, angle: lists(p.angle), scan: lists(p.scan) }), "utf8"));
+}
+
 /** Header comments as key → parsed JSON value, and the table read by csv-parse (an independent reader). */
 function read(text: string) {
   const comments = new Map<string, unknown>();
@@ -70,12 +91,13 @@ describe("figureCsvFiles on the reference figure", () => {
     expect(comments.get("prediction")).toBe("qed-alpha");
     expect(comments.get("label")).toBe("\\alpha = 1/130");
     expect(comments.get("engine version")).toBe(series.engineVersion);
-    const parameters = comments.get("parameters") as { alpha: number; unit: string };
+    const parameters = comments.get("parameters") as HashedParameters & { alpha: number; unit: string };
     expect(parameters.alpha).toBe(1 / 130);
     expect(parameters.unit).toBe("ub/sr");
-    // The hash recomputed here with node:crypto over the canonical JSON of the parameters as read
-    // back from the file (the engine hashes with @noble/hashes).
-    const hash = createHash("sha256").update(canonicalJson(parameters), "utf8").digest("hex");
+    // The hash recomputed from the parameters as read back from the file, by the layout of
+    // docs/decisions/0007 written out here with node:crypto and Buffer.writeDoubleLE (the engine
+    // uses its own code for both).
+    const hash = parametersHashPerDecision0007(parameters);
     expect(comments.get("parameters sha256")).toBe(hash);
     expect(hash).toBe(series.parametersHash);
     expect(rows.map((r) => r.map(Number))).toEqual(series.curve.map((p) => [p.x, p.y]));

@@ -12,7 +12,7 @@ import {
   type Frame,
   type MeasuredPoint,
 } from "~/engine";
-import type { XKind, YKind } from "~/datasets";
+import { NATURAL_Y_UNIT, type XKind, type YKind } from "~/datasets";
 import { paddedDomain } from "./axis-ticks";
 import { datasetInputKey, type DatasetInput, type DatasetInputs, type FigureProblem } from "./figure-inputs";
 import type { DatasetLayer, FigureModel, FigureObservable, FigurePanel, PredictionLayer } from "./figure-model";
@@ -87,12 +87,6 @@ const DATA_OBSERVABLE: Record<YKind, FigureObservable> = {
   dsigma_dcos: "dsigma/dcos",
   dsigma_dt: "dsigma/dt",
   sigma: "sigma",
-};
-const NATURAL_UNIT: Record<FigureObservable, string> = {
-  "dsigma/dOmega": "GeV^-2/sr",
-  "dsigma/dcos": "GeV^-2",
-  "dsigma/dt": "GeV^-4",
-  sigma: "GeV^-2",
 };
 const ENERGY_FACTOR = { GeV: 1, MeV: 1e-3, keV: 1e-6 } as const;
 const DEG = Math.PI / 180;
@@ -285,7 +279,7 @@ function prepareDataset(
       : { kind: "energy", variable: dataX.variable, ...(binned ? { bins: rows.map((r) => ordered(r.xLow!, r.xHigh!)) } : { points: rows.map((r) => r.x) }) };
   let predicted: number[];
   try {
-    predicted = runPrediction(predictionRequest(compared, abscissa, { observable: dataObservable, unit: NATURAL_UNIT[dataObservable] })).values;
+    predicted = runPrediction(predictionRequest(compared, abscissa, { observable: dataObservable, unit: NATURAL_Y_UNIT[input.quantity.y.kind] })).values;
   } catch (error) {
     problems.push({ layerId: layer.id, message: `the prediction "${compared.id}" cannot be compared with this dataset: ${message(error)}` });
     return { ...empty, points };

@@ -1,11 +1,11 @@
 import { Form, data, useActionData, useLoaderData } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/account";
-import { createApiToken, listApiTokens, revokeApiToken } from "~/.server/api-tokens.server";
-import { db } from "~/.server/db.server";
-import { fieldErrorsOf, invalid } from "~/.server/forms.server";
-import { requireUser } from "~/.server/guards.server";
-import { clientIp } from "~/.server/sign-in.server";
+import { createApiToken, listApiTokens, revokeApiToken } from "~/.server/accounts/api-tokens.server";
+import { db } from "~/.server/platform/db.server";
+import { parseForm } from "~/.server/platform/http/forms.server";
+import { requireUser } from "~/.server/platform/http/guards.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
 import { Button } from "~/components/ui/button";
 import { Field } from "~/components/ui/field";
 import { Notice } from "~/components/ui/notice";
@@ -22,14 +22,14 @@ const TokenAction = z.discriminatedUnion("intent", [
 
 export async function action({ request, context }: Route.ActionArgs) {
   const user = await requireUser(request);
-  const parsed = TokenAction.safeParse(Object.fromEntries(await request.formData()));
-  if (!parsed.success) return invalid(fieldErrorsOf(parsed.error));
+  const parsed = await parseForm(request, TokenAction);
+  if (!parsed.ok) return parsed.response;
   const ip = clientIp(context);
-  if (parsed.data.intent === "create-token") {
-    const token = await createApiToken(db, user.id, parsed.data.name, ip);
+  if (parsed.value.intent === "create-token") {
+    const token = await createApiToken(db, user.id, parsed.value.name, ip);
     return { ok: true as const, created: { name: token.name, secret: token.secret } };
   }
-  if (!(await revokeApiToken(db, user.id, parsed.data.tokenId, ip))) {
+  if (!(await revokeApiToken(db, user.id, parsed.value.tokenId, ip))) {
     return data({ ok: false as const, message: "That token does not exist or is already revoked.", fieldErrors: {} as Record<string, string> }, { status: 404 });
   }
   return { ok: true as const, created: null };

@@ -1,12 +1,12 @@
 import { Form, data, useActionData, useLoaderData } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/admin-accounts";
-import { AdminError, resetAccount, setAccountStatus } from "~/.server/admin.server";
-import { db } from "~/.server/db.server";
-import { fieldErrorsOf, invalid } from "~/.server/forms.server";
-import { requireSite, requireUser } from "~/.server/guards.server";
-import { clientIp } from "~/.server/sign-in.server";
-import { listUsers } from "~/.server/users.server";
+import { AdminError, resetAccount, setAccountStatus } from "~/.server/accounts/admin.server";
+import { db } from "~/.server/platform/db.server";
+import { parseForm } from "~/.server/platform/http/forms.server";
+import { requireSite, requireUser } from "~/.server/platform/http/guards.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
+import { listUsers } from "~/.server/accounts/users.server";
 import { Notice } from "~/components/ui/notice";
 import { Shape } from "~/components/ui/shape";
 
@@ -21,9 +21,9 @@ const AdminAction = z.object({ intent: z.enum(["disable", "enable", "reset"], { 
 export async function action({ request, context }: Route.ActionArgs) {
   const user = await requireUser(request);
   requireSite("page", user, "manage:accounts");
-  const parsed = AdminAction.safeParse(Object.fromEntries(await request.formData()));
-  if (!parsed.success) return invalid(fieldErrorsOf(parsed.error));
-  const { intent, userId } = parsed.data;
+  const parsed = await parseForm(request, AdminAction);
+  if (!parsed.ok) return parsed.response;
+  const { intent, userId } = parsed.value;
   const ip = clientIp(context);
   try {
     if (intent === "reset") await resetAccount(db, user.id, userId, ip);

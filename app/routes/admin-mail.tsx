@@ -1,7 +1,7 @@
 import { useLoaderData } from "react-router";
 import type { Route } from "./+types/admin-mail";
-import { env } from "~/.server/env.server";
-import { requireSite, requireUser } from "~/.server/guards.server";
+import { env } from "~/.server/platform/env.server";
+import { requireSite, requireUser } from "~/.server/platform/http/guards.server";
 import { Notice } from "~/components/ui/notice";
 
 type Caught = { id: number; receivedAt: string; from: string; to: string[]; subject: string; text: string };

@@ -1,8 +1,8 @@
 import { Form, Link, redirect, useActionData, useLoaderData } from "react-router";
 import type { Route } from "./+types/confirm-email";
-import { confirmEmail, peekToken } from "~/.server/accounts.server";
-import { db } from "~/.server/db.server";
-import { clientIp } from "~/.server/sign-in.server";
+import { confirmEmail, peekToken } from "~/.server/accounts/accounts.server";
+import { db } from "~/.server/platform/db.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
 import { Button } from "~/components/ui/button";
 
 // Opening the link only shows a button: mail scanners that fetch every link must not use up

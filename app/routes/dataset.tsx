@@ -1,16 +1,16 @@
 import { Form, Link, data, redirect, useActionData, useLoaderData, useNavigation, useSearchParams } from "react-router";
 import type { Route } from "./+types/dataset";
-import { accessDataset, auditRefusedUpload, loadDatasetPage } from "~/.server/dataset-access.server";
-import { MappingForm } from "~/.server/dataset-input.server";
-import { limitMessage } from "~/.server/dataset-json.server";
-import { listRevisions } from "~/.server/dataset-repository.server";
-import { previewCsv } from "~/.server/datasets/preview-csv.server";
-import { db } from "~/.server/db.server";
-import { env } from "~/.server/env.server";
-import { fieldErrorsOf } from "~/.server/forms.server";
-import { type UploadOutcome, ingestUpload, pendingId, receiveUploadForm } from "~/.server/revision-upload.server";
-import { openPending, signPending } from "~/.server/pending-upload.server";
-import { clientIp } from "~/.server/sign-in.server";
+import { accessDataset, auditRefusedUpload, loadDatasetPage } from "~/.server/datasets/dataset-access.server";
+import { MappingForm } from "~/.server/datasets/dataset-input.server";
+import { limitMessage } from "~/.server/datasets/dataset-json.server";
+import { listRevisions } from "~/.server/datasets/dataset-repository.server";
+import { previewCsv } from "~/.server/datasets/csv/preview-csv.server";
+import { db } from "~/.server/platform/db.server";
+import { env } from "~/.server/platform/env.server";
+import { parseFields } from "~/.server/platform/http/forms.server";
+import { type UploadOutcome, ingestUpload, pendingId, receiveUploadForm } from "~/.server/datasets/revision-upload.server";
+import { openPending, signPending } from "~/.server/datasets/pending-upload.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
 import { Fingerprint } from "~/components/fingerprint";
 import { ManuscriptNav } from "~/components/manuscript-nav";
 import { MappingEditor } from "~/components/mapping-editor";
@@ -71,13 +71,13 @@ export async function action({ request, params, context }: Route.ActionArgs) {
     throw redirect(`${base}?pending=${encodeURIComponent(token)}&file=${encodeURIComponent(upload.fileName)}`);
   }
 
-  const fields = Object.fromEntries(await request.formData());
-  const fileName = String(fields.fileName ?? "");
-  const pending = await openPending(String(fields.pending ?? ""), { userId: user.id, datasetId: dataset.id, fileName });
+  const form = await request.formData();
+  const fileName = String(form.get("fileName") ?? "");
+  const pending = await openPending(String(form.get("pending") ?? ""), { userId: user.id, datasetId: dataset.id, fileName });
   if (!pending) return data<ActionResult>({ kind: "error", message: "That upload is no longer waiting (it was used, or the server restarted). Upload the file again." }, { status: 422 });
-  const mapping = MappingForm.safeParse(fields);
-  if (!mapping.success) return data<ActionResult>({ kind: "error", message: "Some columns need attention.", fieldErrors: fieldErrorsOf(mapping.error) }, { status: 422 });
-  const outcome = await ingestUpload({ ...common, tempPath: pending.tempPath, raw: { sha256: pending.sha256, bytes: pending.bytes, fileName }, mapping: mapping.data });
+  const mapping = parseFields(form, MappingForm);
+  if (!mapping.ok) return data<ActionResult>({ kind: "error", message: "Some columns need attention.", fieldErrors: mapping.fieldErrors }, { status: 422 });
+  const outcome = await ingestUpload({ ...common, tempPath: pending.tempPath, raw: { sha256: pending.sha256, bytes: pending.bytes, fileName }, mapping: mapping.value });
   return answer(outcome, base);
 }
 

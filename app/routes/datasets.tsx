@@ -1,13 +1,13 @@
 import { Form, Link, data, redirect, useActionData, useLoaderData } from "react-router";
 import type { Route } from "./+types/datasets";
-import { DatasetNameTaken, createDatasetAudited } from "~/.server/dataset-create.server";
-import { DatasetForm } from "~/.server/dataset-input.server";
-import { listDatasets } from "~/.server/dataset-repository.server";
-import { db } from "~/.server/db.server";
-import { fieldErrorsOf, invalid } from "~/.server/forms.server";
-import { requirePermission, requireUser } from "~/.server/guards.server";
-import { loadManuscriptPage } from "~/.server/manuscript-context.server";
-import { clientIp } from "~/.server/sign-in.server";
+import { DatasetNameTaken, createDatasetAudited } from "~/.server/datasets/dataset-create.server";
+import { DATASET_FORM_FIELDS, DatasetForm } from "~/.server/datasets/dataset-input.server";
+import { listDatasets } from "~/.server/datasets/dataset-repository.server";
+import { db } from "~/.server/platform/db.server";
+import { parseForm } from "~/.server/platform/http/forms.server";
+import { requirePermission, requireUser } from "~/.server/platform/http/guards.server";
+import { loadManuscriptPage } from "~/.server/manuscripts/manuscript-context.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
 import { ManuscriptNav } from "~/components/manuscript-nav";
 import { describeQuantity } from "~/components/quantity-labels";
 import { Button } from "~/components/ui/button";
@@ -24,17 +24,11 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 export async function action({ request, params, context }: Route.ActionArgs) {
   const user = await requireUser(request);
   await requirePermission("page", user, params.manuscriptId, "create:dataset");
-  const parsed = DatasetForm.safeParse(Object.fromEntries(await request.formData()));
-  if (!parsed.success) {
-    const errors = fieldErrorsOf(parsed.error);
-    // The nested schema names fields by path; the form's fields are flat.
-    const flat: Record<string, string> = {};
-    for (const [k, v] of Object.entries(errors)) flat[{ "quantity.y.unit": "yUnit", "quantity.x.unit": "xUnit", "metadata.beamEnergyGeV": "beamEnergyGeV", "metadata.process": "process" }[k] ?? k] = v;
-    return invalid(flat);
-  }
+  const parsed = await parseForm(request, DatasetForm, DATASET_FORM_FIELDS);
+  if (!parsed.ok) return parsed.response;
   let created;
   try {
-    created = await createDatasetAudited(db, { manuscriptId: params.manuscriptId, userId: user.id, ip: clientIp(context), input: parsed.data });
+    created = await createDatasetAudited(db, { manuscriptId: params.manuscriptId, userId: user.id, ip: clientIp(context), input: parsed.value });
   } catch (e) {
     if (e instanceof DatasetNameTaken) return data({ ok: false as const, message: "Some fields need attention.", fieldErrors: { name: e.message } }, { status: 422 });
     throw e;

@@ -1,14 +1,14 @@
 import { useEffect, useMemo, useState } from "react";
 import { Link, data, useFetcher, useLoaderData, useRevalidator } from "react-router";
 import type { Route } from "./+types/figure";
-import { listDatasets } from "~/.server/dataset-repository.server";
-import { db } from "~/.server/db.server";
+import { listDatasets } from "~/.server/datasets/dataset-repository.server";
+import { db } from "~/.server/platform/db.server";
 import { loadFigurePage } from "~/.server/figures/figure-access.server";
 import { loadDatasetInputs } from "~/.server/figures/figure-inputs.server";
 import { FigureTitleTaken, saveDraft } from "~/.server/figures/figure-repository.server";
 import { draftSaveSchema } from "~/.server/figures/figure-service.server";
 import { parseStoredDraft } from "~/.server/figures/render-draft.server";
-import { clientIp } from "~/.server/sign-in.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
 import { Choice, NumberInput, Row, Section, TextInput, type PathErrors } from "~/components/figure-editor/fields";
 import { LayerEditor } from "~/components/figure-editor/layer-editor";
 import { TrueSizeView } from "~/components/figure-editor/true-size";

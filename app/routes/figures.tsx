@@ -1,13 +1,14 @@
 import { Form, Link, data, redirect, useActionData, useLoaderData } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/figures";
-import { listDatasets } from "~/.server/dataset-repository.server";
-import { db } from "~/.server/db.server";
+import { listDatasets } from "~/.server/datasets/dataset-repository.server";
+import { db } from "~/.server/platform/db.server";
 import { FigureTitleTaken, listFigures } from "~/.server/figures/figure-repository.server";
 import { FigureStartError, startFigure } from "~/.server/figures/figure-service.server";
-import { requirePermission, requireUser } from "~/.server/guards.server";
-import { loadManuscriptPage } from "~/.server/manuscript-context.server";
-import { clientIp } from "~/.server/sign-in.server";
+import { requirePermission, requireUser } from "~/.server/platform/http/guards.server";
+import { loadManuscriptPage } from "~/.server/manuscripts/manuscript-context.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
+import { parseForm } from "~/.server/platform/http/forms.server";
 import { ManuscriptNav } from "~/components/manuscript-nav";
 import { Button } from "~/components/ui/button";
 import { Field, SelectField } from "~/components/ui/field";
@@ -27,13 +28,13 @@ const NewFigureForm = z.object({
 export async function action({ request, params, context }: Route.ActionArgs) {
   const user = await requireUser(request);
   await requirePermission("page", user, params.manuscriptId, "edit:figure");
-  const parsed = NewFigureForm.safeParse(Object.fromEntries(await request.formData()));
-  if (!parsed.success) return data({ fieldErrors: { title: parsed.error.issues[0].message } as Record<string, string> }, { status: 422 });
-  const start = parsed.data.start;
+  const parsed = await parseForm(request, NewFigureForm);
+  if (!parsed.ok) return parsed.response;
+  const start = parsed.value.start;
   const from = start === "" ? undefined : { datasetId: start };
   let created;
   try {
-    created = await startFigure(db, { manuscriptId: params.manuscriptId, userId: user.id, ip: clientIp(context), input: { title: parsed.data.title, from } });
+    created = await startFigure(db, { manuscriptId: params.manuscriptId, userId: user.id, ip: clientIp(context), input: { title: parsed.value.title, from } });
   } catch (e) {
     if (e instanceof FigureTitleTaken) return data({ fieldErrors: { title: e.message } as Record<string, string> }, { status: 422 });
     if (e instanceof FigureStartError) return data({ fieldErrors: { start: e.message } as Record<string, string> }, { status: 422 });

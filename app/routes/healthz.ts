@@ -1,5 +1,5 @@
 import { sql } from "kysely";
-import { db } from "~/.server/db.server";
+import { db } from "~/.server/platform/db.server";
 
 export async function loader() {
   await sql`SELECT 1`.execute(db);

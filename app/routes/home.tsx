@@ -1,6 +1,6 @@
 import { Link, redirect } from "react-router";
 import type { Route } from "./+types/home";
-import { optionalUser } from "~/.server/guards.server";
+import { optionalUser } from "~/.server/platform/http/guards.server";
 
 export async function loader({ request }: Route.LoaderArgs) {
   if (await optionalUser(request)) throw redirect("/manuscripts");

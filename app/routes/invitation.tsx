@@ -1,14 +1,14 @@
 import { Form, Link, data, redirect, useActionData, useLoaderData } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/invitation";
-import { NameSchema, PasswordSchema } from "~/.server/accounts.server";
-import { db } from "~/.server/db.server";
-import { fieldErrorsOf, invalid } from "~/.server/forms.server";
-import { optionalUser } from "~/.server/guards.server";
-import { MembershipError, acceptInvitation, createAccountFromInvitation, findInvitation } from "~/.server/manuscripts.server";
-import { clientIp } from "~/.server/sign-in.server";
-import { startSession } from "~/.server/session.server";
-import { findUserByEmail, hashPassword } from "~/.server/users.server";
+import { NameSchema, PasswordSchema } from "~/.server/accounts/accounts.server";
+import { db } from "~/.server/platform/db.server";
+import { parseForm } from "~/.server/platform/http/forms.server";
+import { optionalUser } from "~/.server/platform/http/guards.server";
+import { MembershipError, acceptInvitation, createAccountFromInvitation, findInvitation } from "~/.server/manuscripts/manuscripts.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
+import { startSession } from "~/.server/platform/session.server";
+import { findUserByEmail, hashPassword } from "~/.server/accounts/users.server";
 import { RoleTag } from "~/components/role-tag";
 import { Button } from "~/components/ui/button";
 import { Field } from "~/components/ui/field";
@@ -52,10 +52,10 @@ export async function action({ request, params, context }: Route.ActionArgs) {
     if (await findUserByEmail(db, inv.email)) {
       throw redirect(`/sign-in?redirectTo=${encodeURIComponent(`/invitations/${params.token}`)}`);
     }
-    const parsed = NewAccount.safeParse(Object.fromEntries(await request.formData()));
-    if (!parsed.success) return invalid(fieldErrorsOf(parsed.error));
-    const passwordHash = await hashPassword(parsed.data.password);
-    const { userId, manuscriptId } = await createAccountFromInvitation(db, { invitationId: inv.id, email: inv.email, name: parsed.data.name, passwordHash, ip });
+    const parsed = await parseForm(request, NewAccount);
+    if (!parsed.ok) return parsed.response;
+    const passwordHash = await hashPassword(parsed.value.password);
+    const { userId, manuscriptId } = await createAccountFromInvitation(db, { invitationId: inv.id, email: inv.email, name: parsed.value.name, passwordHash, ip });
     return await startSession(userId, `/manuscripts/${manuscriptId}`, "Welcome to Steradian.");
   } catch (e) {
     if (e instanceof MembershipError) return data({ ok: false as const, message: e.message, fieldErrors: {} as Record<string, string> }, { status: 422 });

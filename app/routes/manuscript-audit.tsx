@@ -1,8 +1,8 @@
 import { useLoaderData } from "react-router";
 import type { Route } from "./+types/manuscript-audit";
-import { listManuscriptAudit } from "~/.server/audit.server";
-import { db } from "~/.server/db.server";
-import { loadManuscriptPage } from "~/.server/manuscript-context.server";
+import { listManuscriptAudit } from "~/.server/platform/audit.server";
+import { db } from "~/.server/platform/db.server";
+import { loadManuscriptPage } from "~/.server/manuscripts/manuscript-context.server";
 import { ManuscriptNav } from "~/components/manuscript-nav";
 
 export async function loader({ request, params }: Route.LoaderArgs) {

@@ -1,15 +1,15 @@
 import { Form, data, useActionData, useLoaderData } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/manuscript-members";
-import { EmailSchema } from "~/.server/accounts.server";
-import { db } from "~/.server/db.server";
-import { fieldErrorsOf, invalid } from "~/.server/forms.server";
-import { requirePermission, requireUser } from "~/.server/guards.server";
-import { loadManuscriptPage } from "~/.server/manuscript-context.server";
+import { EmailSchema } from "~/.server/accounts/accounts.server";
+import { db } from "~/.server/platform/db.server";
+import { parseForm } from "~/.server/platform/http/forms.server";
+import { requirePermission, requireUser } from "~/.server/platform/http/guards.server";
+import { loadManuscriptPage } from "~/.server/manuscripts/manuscript-context.server";
 import {
   MembershipError, RoleSchema, changeRole, inviteMember, listMembers, listOpenInvitations, removeMember,
-} from "~/.server/manuscripts.server";
-import { clientIp } from "~/.server/sign-in.server";
+} from "~/.server/manuscripts/manuscripts.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
 import { ManuscriptNav } from "~/components/manuscript-nav";
 import { RoleTag } from "~/components/role-tag";
 import { Button } from "~/components/ui/button";
@@ -35,9 +35,9 @@ const MemberAction = z.discriminatedUnion("intent", [
 export async function action({ request, params, context }: Route.ActionArgs) {
   const user = await requireUser(request);
   await requirePermission("page", user, params.manuscriptId, "manage:members");
-  const parsed = MemberAction.safeParse(Object.fromEntries(await request.formData()));
-  if (!parsed.success) return invalid(fieldErrorsOf(parsed.error));
-  const input = parsed.data;
+  const parsed = await parseForm(request, MemberAction);
+  if (!parsed.ok) return parsed.response;
+  const input = parsed.value;
   const common = { manuscriptId: params.manuscriptId, ip: clientIp(context) };
   try {
     if (input.intent === "invite") {

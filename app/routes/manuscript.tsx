@@ -1,9 +1,9 @@
 import { Link, useLoaderData } from "react-router";
 import type { Route } from "./+types/manuscript";
-import { db } from "~/.server/db.server";
-import { loadManuscriptPage } from "~/.server/manuscript-context.server";
+import { db } from "~/.server/platform/db.server";
+import { loadManuscriptPage } from "~/.server/manuscripts/manuscript-context.server";
 import { listFigures } from "~/.server/figures/figure-repository.server";
-import { listMembers } from "~/.server/manuscripts.server";
+import { listMembers } from "~/.server/manuscripts/manuscripts.server";
 import { ManuscriptNav } from "~/components/manuscript-nav";
 import { RoleTag } from "~/components/role-tag";
 import { Notice } from "~/components/ui/notice";

@@ -1,10 +1,10 @@
 import { Form, Link, redirect, useActionData, useLoaderData } from "react-router";
 import type { Route } from "./+types/manuscripts";
-import { db } from "~/.server/db.server";
-import { parseForm } from "~/.server/forms.server";
-import { requireUser } from "~/.server/guards.server";
-import { ManuscriptForm, createManuscript, listManuscriptsForUser } from "~/.server/manuscripts.server";
-import { clientIp } from "~/.server/sign-in.server";
+import { db } from "~/.server/platform/db.server";
+import { parseForm } from "~/.server/platform/http/forms.server";
+import { requireUser } from "~/.server/platform/http/guards.server";
+import { ManuscriptForm, createManuscript, listManuscriptsForUser } from "~/.server/manuscripts/manuscripts.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
 import { Button } from "~/components/ui/button";
 import { Field } from "~/components/ui/field";
 import { DemoBadge } from "~/components/ui/notice";

@@ -1,9 +1,9 @@
 import { useId, useMemo, useState } from "react";
 import { useLoaderData } from "react-router";
 import type { Route } from "./+types/predictions";
-import { requireUser } from "~/.server/guards.server";
+import { requireUser } from "~/.server/platform/http/guards.server";
 import { PHYSICAL_CONSTANTS, PROCESSES, type Observable, type PredictionResponse } from "~/engine";
-import { PredictionChart, type ChartRow } from "~/components/prediction-chart";
+import { PredictionChart } from "~/components/prediction-chart";
 import { Fingerprint } from "~/components/fingerprint";
 import { Notice } from "~/components/ui/notice";
 import { Field, SelectField } from "~/components/ui/field";
@@ -17,6 +17,7 @@ import {
 } from "~/components/predictions/prediction-form-state";
 import { unitChoices, unitLabel } from "~/components/predictions/unit-choices";
 import { useLivePrediction } from "~/components/predictions/use-live-prediction";
+import { OBSERVABLE_TITLE, predictionChartSpec, xTitleOf } from "~/figures/prediction-chart-spec";
 
 export async function loader({ request }: Route.LoaderArgs) {
   await requireUser(request);
@@ -121,7 +122,7 @@ export default function Predictions() {
                 slot={slot === "range" || slot === RANGE_FIELDS.from || slot === RANGE_FIELDS.to || slot === RANGE_FIELDS.count ? slot : null}
                 message={problem?.message}
               />
-              <Check label="Bin-averaged: the mean over equal bins instead of values at points" checked={form.binned} onChange={set("binned")} />
+              <Check label="Bin-averaged over equal bins instead of values at points: an angle bin gives the cross section in the bin divided by the bin's width in the variable of the derivative (its solid angle ΔΩ for dσ/dΩ, Δcos θ for dσ/dcos θ, Δt for dσ/dt), as a measured bin does; an energy bin gives the mean over its energies" checked={form.binned} onChange={set("binned")} />
             </div>
           )}
           {scan && differential ? (
@@ -254,38 +255,9 @@ function Check({ label, ...rest }: { label: string } & React.InputHTMLAttributes
   );
 }
 
-const OBSERVABLE_TITLE: Record<Observable, string> = { "dsigma/dOmega": "dσ/dΩ", "dsigma/dcos": "dσ/dcosθ", "dsigma/dt": "dσ/dt", sigma: "σ" };
-
-function xTitleOf(r: PredictionResponse): string {
-  const frame = r.frame === "cm" ? "CM" : "lab";
-  const eUnit = r.parameters.scan?.unit ?? "GeV";
-  switch (r.variable) {
-    case "thetaDeg": return `θ (${frame}), degrees`;
-    case "cosTheta": return `cos θ (${frame})`;
-    case "t": return "t, GeV²";
-    case "sqrtS": return `√s, ${eUnit}`;
-    case "beam": return `total beam energy, ${eUnit}`;
-    case "kinetic": return `beam kinetic energy, ${eUnit}`;
-    default: return "";
-  }
-}
-
 function CurveOf({ response: r }: { response: PredictionResponse }) {
-  const rows = useMemo<ChartRow[]>(
-    () => r.values.map((y, i) => (r.binned ? { x: r.bins![i][0], x2: r.bins![i][1], y } : { x: r.points![i], y })),
-    [r],
-  );
-  const xDomain = useMemo<[number, number] | undefined>(() => {
-    const xs = rows.flatMap((row) => (row.x2 === undefined ? [row.x] : [row.x, row.x2]));
-    const span = Math.max(...xs) - Math.min(...xs);
-    // The full angular range gives the shape its context, unless the curve covers a small part of it.
-    if (r.variable === "thetaDeg" && span >= 90) return [0, 180];
-    if (r.variable === "cosTheta" && span >= 1) return [-1, 1];
-    return undefined;
-  }, [rows, r.variable]);
-  const yTitle = `${OBSERVABLE_TITLE[r.observable]}${r.binned ? " (bin mean)" : ""}, ${unitLabel(r.unit)}`;
-  const xTitle = xTitleOf(r);
-  return <PredictionChart rows={rows} xTitle={xTitle} yTitle={yTitle} xDomain={xDomain} description={`${yTitle} against ${xTitle}, ${r.conventions.reaction}`} />;
+  const { spec, description } = useMemo(() => predictionChartSpec(r), [r]);
+  return <PredictionChart spec={spec} description={description} />;
 }
 
 function SingleValue({ response: r }: { response: PredictionResponse }) {

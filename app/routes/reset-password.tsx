@@ -1,10 +1,10 @@
 import { Form, Link, redirect, useActionData, useLoaderData } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/reset-password";
-import { PasswordSchema, peekToken, resetPassword } from "~/.server/accounts.server";
-import { db } from "~/.server/db.server";
-import { parseForm } from "~/.server/forms.server";
-import { clientIp } from "~/.server/sign-in.server";
+import { PasswordSchema, peekToken, resetPassword } from "~/.server/accounts/accounts.server";
+import { db } from "~/.server/platform/db.server";
+import { parseForm } from "~/.server/platform/http/forms.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
 import { Button } from "~/components/ui/button";
 import { Field } from "~/components/ui/field";
 

@@ -1,11 +1,11 @@
 import { Link, useLoaderData } from "react-router";
 import { z } from "zod";
 import type { Route } from "./+types/revision-compare";
-import { loadDatasetPage, parseRevisionNumber } from "~/.server/dataset-access.server";
-import { findRevision } from "~/.server/dataset-repository.server";
-import { diffRevisionsInDatabase } from "~/.server/revision-diff.server";
-import { db } from "~/.server/db.server";
-import { notFound } from "~/.server/guards.server";
+import { loadDatasetPage, parseRevisionNumber } from "~/.server/datasets/dataset-access.server";
+import { findRevision } from "~/.server/datasets/dataset-repository.server";
+import { diffRevisionsInDatabase } from "~/.server/datasets/revision-diff.server";
+import { db } from "~/.server/platform/db.server";
+import { notFound } from "~/.server/platform/http/guards.server";
 import { ManuscriptNav } from "~/components/manuscript-nav";
 import { displayScale, formatValue } from "~/components/quantity-labels";
 import type { RevisionRow } from "~/datasets/diff-revisions";

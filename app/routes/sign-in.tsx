@@ -1,8 +1,9 @@
 import { Form, Link, data, redirect, useActionData, useNavigation, useSearchParams } from "react-router";
 import type { Route } from "./+types/sign-in";
-import { optionalUser } from "~/.server/guards.server";
-import { SignInError, clientIp, createAuthenticator } from "~/.server/sign-in.server";
-import { startSession } from "~/.server/session.server";
+import { optionalUser } from "~/.server/platform/http/guards.server";
+import { SignInError, createAuthenticator } from "~/.server/accounts/sign-in.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
+import { startSession } from "~/.server/platform/session.server";
 import { Button } from "~/components/ui/button";
 import { Field } from "~/components/ui/field";
 import { Notice } from "~/components/ui/notice";

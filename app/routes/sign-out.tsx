@@ -1,8 +1,8 @@
 import type { Route } from "./+types/sign-out";
-import { recordAudit } from "~/.server/audit.server";
-import { db } from "~/.server/db.server";
-import { clientIp } from "~/.server/sign-in.server";
-import { endSession, sessionUserId } from "~/.server/session.server";
+import { recordAudit } from "~/.server/platform/audit.server";
+import { db } from "~/.server/platform/db.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
+import { endSession, sessionUserId } from "~/.server/platform/session.server";
 
 export async function loader() {
   return new Response(null, { status: 302, headers: { Location: "/" } });

@@ -1,10 +1,10 @@
 import { Form, Link, redirect, useActionData, useNavigation } from "react-router";
 import type { Route } from "./+types/sign-up";
-import { SignUpForm, signUp } from "~/.server/accounts.server";
-import { db } from "~/.server/db.server";
-import { parseForm } from "~/.server/forms.server";
-import { optionalUser } from "~/.server/guards.server";
-import { clientIp } from "~/.server/sign-in.server";
+import { SignUpForm, signUp } from "~/.server/accounts/accounts.server";
+import { db } from "~/.server/platform/db.server";
+import { parseForm } from "~/.server/platform/http/forms.server";
+import { optionalUser } from "~/.server/platform/http/guards.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
 import { Button } from "~/components/ui/button";
 import { Field } from "~/components/ui/field";
 import { Notice } from "~/components/ui/notice";

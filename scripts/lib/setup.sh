@@ -4,7 +4,7 @@
 # (PG_PORT, PG_DIR, DB_NAME) set by the caller.
 set -euo pipefail
 
-# Debian 12 ships PostgreSQL 15 (STACK.md); on another release take the newest installed major.
+# Debian 12 ships PostgreSQL 15 (docs/conventions.md, "Stack facts"); on another release take the newest installed major.
 pg_bin_dir() {
   if [ -x /usr/lib/postgresql/15/bin/postgres ]; then echo /usr/lib/postgresql/15/bin; return; fi
   local newest; newest=$(ls -d /usr/lib/postgresql/*/bin 2>/dev/null | sort -V | tail -n1)

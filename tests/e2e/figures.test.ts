@@ -68,7 +68,7 @@ describe("the figure composer", () => {
     await page.waitForURL(/\/figures\/[0-9a-f-]{36}$/);
     const figureId = /\/figures\/([0-9a-f-]{36})$/.exec(page.url())![1];
 
-    await page.getByTestId("figure-preview").locator("svg").waitFor({ timeout: 30_000 });
+    await page.getByTestId("figure-preview").locator("svg").first().waitFor({ timeout: 30_000 });
     const before = await previewOfRevision(page, 1);
     // Started from the dataset: its points and the prediction its metadata names, with a ratio strip.
     expect(before).toContain("Unsealed draft, revision 1,");
@@ -94,7 +94,7 @@ describe("the figure composer", () => {
     // A second tab on the same draft revision; the first saves on; the second's save is refused.
     const second = await browser.context.newPage();
     await second.goto(page.url());
-    await second.getByTestId("figure-preview").locator("svg").waitFor({ timeout: 30_000 });
+    await second.getByTestId("figure-preview").locator("svg").first().waitFor({ timeout: 30_000 });
     await page.getByTestId("strip-0").selectOption("pull");
     await waitSaved(page);
     await second.getByTestId("strip-0").selectOption("none");

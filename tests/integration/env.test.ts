@@ -5,7 +5,7 @@ import { promisify } from "node:util";
 import { describe, expect, it } from "vitest";
 
 const run = (env: Record<string, string | undefined>) =>
-  promisify(execFile)("node_modules/.bin/tsx", ["-e", 'import("./app/.server/env.server.ts").then((m) => console.log("PORT=" + m.env.PORT))'], {
+  promisify(execFile)("node_modules/.bin/tsx", ["-e", 'import("./app/.server/platform/env.server.ts").then((m) => console.log("PORT=" + m.env.PORT))'], {
     env: { PATH: process.env.PATH, HOME: process.env.HOME, ...env },
   });
 

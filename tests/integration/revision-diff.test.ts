@@ -2,7 +2,7 @@
 // seeded random revisions with and without bins.
 import fc from "fast-check";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { diffRevisionsInDatabase } from "../../app/.server/revision-diff.server";
+import { diffRevisionsInDatabase } from "../../app/.server/datasets/revision-diff.server";
 import { diffRevisions, type RevisionRow } from "../../app/datasets/diff-revisions";
 import { createTestDatabase } from "../support/db";
 

@@ -1,6 +1,6 @@
 import { afterEach, beforeEach, vi } from "vitest";
 
-// STYLE.md: a console.error during a test fails it.
+// A console.error during a test fails it (docs/conventions.md, "Tests").
 let errors: unknown[][] = [];
 beforeEach(() => {
   errors = [];

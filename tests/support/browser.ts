@@ -3,7 +3,7 @@ import { tmpdir } from "node:os";
 import path from "node:path";
 import { type BrowserContext, chromium } from "playwright-core";
 
-/** Debian's chromium, headless, in a fresh profile that is removed afterwards (STACK.md). */
+/** Debian's chromium, headless, in a fresh profile that is removed afterwards (docs/conventions.md, "Stack facts"). */
 export async function launchBrowser(): Promise<{ context: BrowserContext; close(): Promise<void> }> {
   const dir = mkdtempSync(path.join(tmpdir(), "steradian-chromium-"));
   const context = await chromium.launchPersistentContext(dir, {

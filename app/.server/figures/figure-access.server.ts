@@ -1,7 +1,7 @@
 import { capabilities, type ManuscriptAction } from "~/permissions";
-import { db } from "../db.server";
-import { type Mode, notFound, requireApiUser, requirePermission, requireUser } from "../guards.server";
-import { getManuscript } from "../manuscripts.server";
+import { db } from "../platform/db.server";
+import { type Mode, notFound, requireApiUser, requirePermission, requireUser } from "../platform/http/guards.server";
+import { getManuscript } from "../manuscripts/manuscripts.server";
 import { findFigure } from "./figure-repository.server";
 
 /**

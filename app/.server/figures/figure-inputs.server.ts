@@ -1,7 +1,7 @@
 import type { QuantityDescription } from "~/datasets";
 import { datasetInputKey, type DatasetInput, type DatasetInputs } from "~/figures/figure-inputs";
 import type { FigureModel } from "~/figures/figure-model";
-import type { Db } from "../db.server";
+import type { Db } from "../platform/db.server";
 
 /**
  * The pinned revisions that a figure's dataset layers name, read from the database in

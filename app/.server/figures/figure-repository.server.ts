@@ -1,7 +1,7 @@
 import { sql } from "kysely";
 import type { FigureModel } from "~/figures/figure-model";
-import { recordAudit } from "../audit.server";
-import type { Db } from "../db.server";
+import { recordAudit } from "../platform/audit.server";
+import type { Db } from "../platform/db.server";
 
 export class FigureTitleTaken extends Error {
   constructor(title: string) {

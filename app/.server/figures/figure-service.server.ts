@@ -2,8 +2,8 @@ import { z } from "zod";
 import type { QuantityDescription } from "~/datasets";
 import { figureModelIssues, figureModelSchema, type FigureModel } from "~/figures/figure-model";
 import { emptyFigureModel, figureModelFromDataset } from "~/figures/starter-model";
-import { findDataset, findRevision } from "../dataset-repository.server";
-import type { Db } from "../db.server";
+import { findDataset, findRevision } from "../datasets/dataset-repository.server";
+import type { Db } from "../platform/db.server";
 import { createFigure, type FigureRow } from "./figure-repository.server";
 
 /** How a new figure starts: empty, from a dataset revision (the latest if none is named), or from a full model. */

@@ -1,7 +1,7 @@
 import { figureModelIssues, figureModelSchema, type FigureModel } from "~/figures/figure-model";
 import { draftMetadata } from "~/figures/draft-metadata";
 import { renderFigure, type RenderedFigure } from "~/figures/render-figure";
-import type { Db } from "../db.server";
+import type { Db } from "../platform/db.server";
 import { loadDatasetInputs } from "./figure-inputs.server";
 import type { FigureRow } from "./figure-repository.server";
 

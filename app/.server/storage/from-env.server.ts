@@ -1,4 +1,4 @@
-import { env } from "../env.server";
+import { env } from "../platform/env.server";
 import type { BlobStore } from "./blob-store.server";
 import { createBlobStore } from "./create-blob-store.server";
 

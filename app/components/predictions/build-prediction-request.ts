@@ -61,7 +61,7 @@ function grid(f: PredictionFormState, what: string): { points: number[] | null; 
 
 /**
  * The request body exactly as `POST /api/v1/predictions` and `npm run predict` take it
- * (DESIGN.md "Prediction contract", docs/decisions/0003), or the first problem with the
+ * (docs/product.md "Prediction contract", docs/decisions/0003), or the first problem with the
  * page's own range inputs.
  */
 export function buildPredictionRequest(f: PredictionFormState, info: ProcessInfo): BuiltRequest {

@@ -12,7 +12,7 @@ function formFactorText(ff: PredictionResponse["parameters"]["formFactor"]): str
 }
 
 /**
- * The conventions a reader needs to use the numbers (DESIGN.md asks for them beside every
+ * The conventions a reader needs to use the numbers (docs/product.md asks for them beside every
  * prediction): from the process registry, and from the answer itself once there is one, so
  * that what is printed is what was computed.
  */

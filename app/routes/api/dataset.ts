@@ -1,9 +1,9 @@
 import type { Route } from "./+types/dataset";
-import { apiHandler, methodNotAllowed } from "~/.server/api-handler.server";
-import { accessDataset } from "~/.server/dataset-access.server";
-import { datasetJson, revisionJson } from "~/.server/dataset-json.server";
-import { listRevisions } from "~/.server/dataset-repository.server";
-import { db } from "~/.server/db.server";
+import { apiHandler, methodNotAllowed } from "~/.server/platform/http/api-handler.server";
+import { accessDataset } from "~/.server/datasets/dataset-access.server";
+import { datasetJson, revisionJson } from "~/.server/datasets/dataset-json.server";
+import { listRevisions } from "~/.server/datasets/dataset-repository.server";
+import { db } from "~/.server/platform/db.server";
 
 export const loader = apiHandler(async ({ request, params }: Route.LoaderArgs) => {
   const { dataset } = await accessDataset("api", request, params.manuscriptId, params.datasetId, "read:dataset");

@@ -1,12 +1,13 @@
 import type { Route } from "./+types/datasets";
-import { apiHandler, readJsonBody } from "~/.server/api-handler.server";
-import { DatasetNameTaken, createDatasetAudited } from "~/.server/dataset-create.server";
-import { DatasetInput } from "~/.server/dataset-input.server";
-import { datasetJson } from "~/.server/dataset-json.server";
-import { listDatasets } from "~/.server/dataset-repository.server";
-import { db } from "~/.server/db.server";
-import { apiError, requireApiUser, requirePermission } from "~/.server/guards.server";
-import { clientIp } from "~/.server/sign-in.server";
+import { apiHandler, readJsonBody } from "~/.server/platform/http/api-handler.server";
+import { DatasetNameTaken, createDatasetAudited } from "~/.server/datasets/dataset-create.server";
+import { DatasetInput } from "~/.server/datasets/dataset-input.server";
+import { datasetJson } from "~/.server/datasets/dataset-json.server";
+import { listDatasets } from "~/.server/datasets/dataset-repository.server";
+import { db } from "~/.server/platform/db.server";
+import { requireApiUser, requirePermission } from "~/.server/platform/http/guards.server";
+import { apiError } from "~/.server/platform/http/api-error.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
 
 export const loader = apiHandler(async ({ request, params }: Route.LoaderArgs) => {
   const user = await requireApiUser(request);

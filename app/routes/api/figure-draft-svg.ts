@@ -1,9 +1,9 @@
 import type { Route } from "./+types/figure-draft-svg";
-import { apiHandler, methodNotAllowed } from "~/.server/api-handler.server";
-import { db } from "~/.server/db.server";
+import { apiHandler, methodNotAllowed } from "~/.server/platform/http/api-handler.server";
+import { db } from "~/.server/platform/db.server";
 import { accessFigure } from "~/.server/figures/figure-access.server";
 import { parseStoredDraft, renderDraft } from "~/.server/figures/render-draft.server";
-import { apiError } from "~/.server/guards.server";
+import { apiError } from "~/.server/platform/http/api-error.server";
 
 /** The draft drawn on the server, by the same renderer as the page's preview; marked unsealed in its metadata. */
 export const loader = apiHandler(async ({ request, params }: Route.LoaderArgs) => {

@@ -1,11 +1,11 @@
 import type { Route } from "./+types/figure-draft";
-import { apiHandler, readJsonBody } from "~/.server/api-handler.server";
-import { db } from "~/.server/db.server";
+import { apiHandler, readJsonBody } from "~/.server/platform/http/api-handler.server";
+import { db } from "~/.server/platform/db.server";
 import { accessFigure } from "~/.server/figures/figure-access.server";
 import { FigureTitleTaken, saveDraft } from "~/.server/figures/figure-repository.server";
 import { draftSaveSchema, figureJson } from "~/.server/figures/figure-service.server";
-import { apiError } from "~/.server/guards.server";
-import { clientIp } from "~/.server/sign-in.server";
+import { apiError } from "~/.server/platform/http/api-error.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
 import { figureModelIssues, figureModelSchema } from "~/figures/figure-model";
 
 export const loader = apiHandler(async ({ request, params }: Route.LoaderArgs) => {

@@ -1,11 +1,12 @@
 import type { Route } from "./+types/figures";
-import { apiHandler, readJsonBody } from "~/.server/api-handler.server";
-import { db } from "~/.server/db.server";
+import { apiHandler, readJsonBody } from "~/.server/platform/http/api-handler.server";
+import { db } from "~/.server/platform/db.server";
 import { FigureTitleTaken, listFigures } from "~/.server/figures/figure-repository.server";
 import { FigureStartError, figureJson, newFigureSchema, startFigure } from "~/.server/figures/figure-service.server";
 import { findFigure } from "~/.server/figures/figure-repository.server";
-import { apiError, requireApiUser, requirePermission } from "~/.server/guards.server";
-import { clientIp } from "~/.server/sign-in.server";
+import { requireApiUser, requirePermission } from "~/.server/platform/http/guards.server";
+import { apiError } from "~/.server/platform/http/api-error.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
 
 export const loader = apiHandler(async ({ request, params }: Route.LoaderArgs) => {
   const user = await requireApiUser(request);

@@ -1,8 +1,8 @@
 import type { Route } from "./+types/manuscript";
-import { apiHandler, methodNotAllowed } from "~/.server/api-handler.server";
-import { db } from "~/.server/db.server";
-import { notFound, requireApiUser, requirePermission } from "~/.server/guards.server";
-import { getManuscript, listMembers } from "~/.server/manuscripts.server";
+import { apiHandler, methodNotAllowed } from "~/.server/platform/http/api-handler.server";
+import { db } from "~/.server/platform/db.server";
+import { notFound, requireApiUser, requirePermission } from "~/.server/platform/http/guards.server";
+import { getManuscript, listMembers } from "~/.server/manuscripts/manuscripts.server";
 import { capabilities } from "~/permissions";
 
 export const loader = apiHandler(async ({ request, params }: Route.LoaderArgs) => {

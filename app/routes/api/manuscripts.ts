@@ -1,8 +1,9 @@
 import type { Route } from "./+types/manuscripts";
-import { apiHandler } from "~/.server/api-handler.server";
-import { db } from "~/.server/db.server";
-import { apiError, requireApiUser } from "~/.server/guards.server";
-import { listManuscriptsForUser } from "~/.server/manuscripts.server";
+import { apiHandler } from "~/.server/platform/http/api-handler.server";
+import { db } from "~/.server/platform/db.server";
+import { requireApiUser } from "~/.server/platform/http/guards.server";
+import { apiError } from "~/.server/platform/http/api-error.server";
+import { listManuscriptsForUser } from "~/.server/manuscripts/manuscripts.server";
 
 export const loader = apiHandler(async ({ request }: Route.LoaderArgs) => {
   const user = await requireApiUser(request);

@@ -1,4 +1,4 @@
-import { apiError } from "~/.server/guards.server";
+import { apiError } from "~/.server/platform/http/api-error.server";
 
 export function loader() {
   return apiError(404, "not-found", "No such API endpoint.");

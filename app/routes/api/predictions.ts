@@ -1,6 +1,7 @@
 import type { Route } from "./+types/predictions";
-import { apiHandler, readJsonBody } from "~/.server/api-handler.server";
-import { apiError, requireApiUser } from "~/.server/guards.server";
+import { apiHandler, readJsonBody } from "~/.server/platform/http/api-handler.server";
+import { requireApiUser } from "~/.server/platform/http/guards.server";
+import { apiError } from "~/.server/platform/http/api-error.server";
 import { EngineInputError, runPrediction } from "~/engine";
 
 export const loader = apiHandler(async ({ request }: Route.LoaderArgs) => {

@@ -1,15 +1,13 @@
 import { z } from "zod";
 import type { Route } from "./+types/revision-rows";
-import { apiHandler, methodNotAllowed } from "~/.server/api-handler.server";
-import { accessRevision } from "~/.server/dataset-access.server";
-import { revisionRowsPage } from "~/.server/dataset-repository.server";
+import { apiHandler, methodNotAllowed } from "~/.server/platform/http/api-handler.server";
+import { accessRevision } from "~/.server/datasets/dataset-access.server";
+import { revisionRowsPage } from "~/.server/datasets/dataset-repository.server";
 import { ROW_SORTS } from "~/revision-row-sorts";
-import { quantitySchema } from "~/datasets/quantity";
+import { NATURAL_Y_UNIT, quantitySchema } from "~/datasets/quantity";
 import { resolveQuantityScales } from "~/datasets/quantity-scales";
-import { db } from "~/.server/db.server";
-import { apiError } from "~/.server/guards.server";
-
-const NATURAL_Y = { dsigma_domega: "GeV^-2/sr", dsigma_dcos: "GeV^-2", dsigma_dt: "GeV^-4", sigma: "GeV^-2" } as const;
+import { db } from "~/.server/platform/db.server";
+import { apiError } from "~/.server/platform/http/api-error.server";
 
 const RowsQuery = z.object({
   page: z.coerce.number({ message: "page must be a whole number from 1" }).int().min(1, "page must be a whole number from 1").default(1),
@@ -28,7 +26,7 @@ export const loader = apiHandler(async ({ request, params }: Route.LoaderArgs) =
   return Response.json({
     revision: `r${revision.number}`,
     // Rows are the revision's normal form, in canonical units.
-    units: { x: resolveQuantityScales(quantity).xCanonicalUnit, y: NATURAL_Y[quantity.y.kind] },
+    units: { x: resolveQuantityScales(quantity).xCanonicalUnit, y: NATURAL_Y_UNIT[quantity.y.kind] },
     page, pageSize, totalRows: revision.row_count, totalPages: Math.ceil(revision.row_count / pageSize),
     rows: rows.map((r) => ({ row: r.idx + 1, x: r.x, xLow: r.x_low, xHigh: r.x_high, y: r.y, statMinus: r.stat_minus, statPlus: r.stat_plus, systMinus: r.syst_minus, systPlus: r.syst_plus })),
   });

@@ -1,13 +1,13 @@
 import type { Route } from "./+types/revisions";
-import { apiHandler } from "~/.server/api-handler.server";
-import { accessDataset, auditRefusedUpload } from "~/.server/dataset-access.server";
-import { limitMessage, revisionJson, uploadOutcomeResponse } from "~/.server/dataset-json.server";
-import { listRevisions } from "~/.server/dataset-repository.server";
-import { db } from "~/.server/db.server";
-import { apiError } from "~/.server/guards.server";
-import { ingestUpload, receiveUploadForm } from "~/.server/revision-upload.server";
-import { clientIp } from "~/.server/sign-in.server";
-import { columnMappingSchema } from "~/datasets/column-mapping";
+import { apiHandler } from "~/.server/platform/http/api-handler.server";
+import { accessDataset, auditRefusedUpload } from "~/.server/datasets/dataset-access.server";
+import { uploadMapping } from "~/.server/datasets/dataset-input.server";
+import { limitMessage, revisionJson, uploadOutcomeResponse } from "~/.server/datasets/dataset-json.server";
+import { listRevisions } from "~/.server/datasets/dataset-repository.server";
+import { db } from "~/.server/platform/db.server";
+import { apiError } from "~/.server/platform/http/api-error.server";
+import { ingestUpload, receiveUploadForm } from "~/.server/datasets/revision-upload.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
 import { quantitySchema } from "~/datasets/quantity";
 
 export const loader = apiHandler(async ({ request, params }: Route.LoaderArgs) => {
@@ -29,26 +29,13 @@ export const action = apiHandler(async ({ request, params, context }: Route.Acti
       await refused("no file part");
       return apiError(422, "missing-file", "Send the CSV file in a multipart field named “file”.", { field: "file" });
     }
-    const mappingText = form.fields.get("mapping");
-    let mapping: unknown = dataset.mapping;
-    if (typeof mappingText === "string" && mappingText.trim() !== "") {
-      try {
-        mapping = JSON.parse(mappingText);
-      } catch {
-        return apiError(422, "invalid-mapping", "The “mapping” field is not valid JSON.", { field: "mapping" });
-      }
-    }
-    if (mapping == null) return apiError(422, "missing-mapping", "This dataset has no saved column mapping yet: send one in the “mapping” field.", { field: "mapping" });
-    const parsedMapping = columnMappingSchema.safeParse(mapping);
-    if (!parsedMapping.success) {
-      const i = parsedMapping.error.issues[0];
-      return apiError(422, "invalid-mapping", i.message, { field: ["mapping", ...i.path].join(".") });
-    }
+    const mapping = uploadMapping(form.fields.get("mapping"), dataset.mapping);
+    if (!mapping.ok) return apiError(422, mapping.code, mapping.message, { field: mapping.field });
     const quantity = quantitySchema.parse(dataset.quantity);
     const outcome = await ingestUpload({
       manuscriptId: params.manuscriptId, datasetId: dataset.id, userId: user.id, ip: clientIp(context),
       tempPath: form.upload.tempPath, raw: { sha256: form.upload.sha256, bytes: form.upload.bytes, fileName: form.upload.fileName },
-      mapping: parsedMapping.data, quantity,
+      mapping: mapping.mapping, quantity,
     });
     return uploadOutcomeResponse(outcome);
   } finally {

@@ -1,0 +1,28 @@
+import { describe, expect, it } from "vitest";
+import { MappingField, uploadMapping } from "./dataset-input.server";
+
+const MAPPING = { x: "theta", y: "dsigma", stat: { kind: "symmetric", column: "stat" } };
+
+describe("the mapping field of an API upload", () => {
+  it("reads a column mapping from JSON text", () => {
+    expect(MappingField.parse(JSON.stringify(MAPPING))).toEqual(MAPPING);
+  });
+
+  it("takes an absent, blank or non-text field as not sent", () => {
+    for (const field of [undefined, null, "", "  \n", new File(["x"], "mapping.json")]) expect(MappingField.parse(field)).toBeUndefined();
+  });
+
+  it("uses the sent mapping over the saved one, and the saved one when none is sent", () => {
+    const saved = { x: "angle", y: "xs" };
+    expect(uploadMapping(JSON.stringify(MAPPING), saved)).toEqual({ ok: true, mapping: MAPPING });
+    expect(uploadMapping(null, saved)).toEqual({ ok: true, mapping: saved });
+  });
+
+  it("names the field of each refusal", () => {
+    expect(uploadMapping("{not json", null)).toEqual({ ok: false, code: "invalid-mapping", message: "The “mapping” field is not valid JSON.", field: "mapping" });
+    expect(uploadMapping(null, null)).toMatchObject({ ok: false, code: "missing-mapping", field: "mapping" });
+    expect(uploadMapping(JSON.stringify({ x: "a", y: "a" }), null)).toMatchObject({ ok: false, code: "invalid-mapping", field: "mapping.y" });
+    expect(uploadMapping(JSON.stringify({ x: "a", y: "b", xLow: "lo" }), null)).toMatchObject({ ok: false, code: "invalid-mapping", field: "mapping.xHigh" });
+    expect(uploadMapping(null, { x: "" })).toMatchObject({ ok: false, code: "invalid-mapping", field: "mapping.x" });
+  });
+});
