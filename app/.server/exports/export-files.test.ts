@@ -185,7 +185,7 @@ describe("svgToPdf on the reference figure", () => {
     expect(inkPdf).toBeLessThan(0.4);
     expect(Math.abs(inkPdf - inkSvg)).toBeLessThan(0.25 * inkSvg);
     // The same layout: darkness on a 12 × 12 grid correlates almost perfectly (0.998 measured).
-    // The control: the same picture moved right by a tenth of its width scores 0.74.
+    // The control: the same picture moved right by a tenth of its width scores about 0.75.
     expect(correlation(blocks(fromPdf, 12), blocks(fromSvg, 12))).toBeGreaterThan(0.95);
     const shift = Math.round(fromSvg.width / 10);
     const moved = { ...fromSvg, g: fromSvg.g.map((_, i) => (i % fromSvg.width >= shift ? fromSvg.g[i - shift] : 255)) };
