@@ -9,7 +9,7 @@ import { ErrorPage } from "./components/error-page";
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await optionalUser(request);
-  return { user, unread: user ? await unreadCount(db, user.id) : 0 };
+  return { user, unread: user ? await unreadCount(db, user.id, new URL(request.url).pathname.replace(/\.data$/, "")) : 0 };
 }
 
 // The header's inbox count stays true on every navigation (one small query).

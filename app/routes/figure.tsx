@@ -117,10 +117,15 @@ export default function FigurePage() {
   }
 
   // Saves a short pause after the last edit, one save at a time, each based on the revision the previous one made.
+  // `queued` covers the moment between handing the save to the fetcher and the fetcher reporting it
+  // busy, so that the page never says "saved" (nor offers to seal) while a save is on its way.
+  const [queued, setQueued] = useState(false);
+  useEffect(() => { if (fetcher.state !== "idle") setQueued(false); }, [fetcher.state]);
   useEffect(() => {
     if (!dirty || conflict !== null || fetcher.state !== "idle" || valid === null) return;
     const timer = setTimeout(() => {
       setDirty(false);
+      setQueued(true);
       fetcher.submit({ baseRevision: base, model: valid, title: title.trim() === "" ? figure.title : title }, { method: "post", encType: "application/json" });
     }, 350);
     return () => clearTimeout(timer);
@@ -144,7 +149,7 @@ export default function FigurePage() {
   }
 
   const preset = findPreset(draft.preset) ?? findPreset(DEFAULT_PRESET_ID)!;
-  const saving = fetcher.state !== "idle" ? "saving…" : dirty ? "edited" : conflict ? "not saved" : `saved · revision ${base}`;
+  const saving = fetcher.state !== "idle" || queued ? "saving…" : dirty ? "edited" : conflict ? "not saved" : `saved · revision ${base}`;
   const figureProblems = preview.problems.filter((p) => p.layerId === null);
   const generated = preview.xDomain && preview.yDomain && shown ? describeFigure(shown, { x: preview.xDomain, y: preview.yDomain }) : "";
 
@@ -179,7 +184,7 @@ export default function FigurePage() {
       {saveError && !conflict ? <div className="mb-4"><Notice tone="caution">{saveError.message}</Notice></div> : null}
       {!editable ? <div className="mb-4"><Notice>You can read this figure; editing needs the role of corresponding author or contributor.</Notice></div> : null}
       <FigureVersionsPanel base={`/manuscripts/${manuscript.id}/figures/${figure.id}`} versions={versions} draftRevision={base} canSeal={can["seal:figure"]}
-        busy={dirty || fetcher.state !== "idle" || conflict !== null || valid === null} />
+        busy={dirty || queued || fetcher.state !== "idle" || conflict !== null || valid === null} />
       <div className="grid grid-cols-[26rem_1fr] gap-8 max-xl:grid-cols-1">
         <form className="flex flex-col" onSubmit={(e) => e.preventDefault()} aria-label="Figure settings">
           <fieldset disabled={!editable} className="contents">

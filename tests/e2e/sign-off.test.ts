@@ -90,9 +90,12 @@ describe("sealing and sign-off", () => {
     expect(request.text).toContain("Positron annihilation in flight");
     expect(request.text).toMatch(/Fingerprint of v1: [0-9a-f]{4} [0-9a-f]{4} [0-9a-f]{4} …/);
     await signInAs(page, DEMO.coauthor);
-    await expect(page.getByTestId("inbox-count").textContent()).resolves.toMatch(/^\d+$/);
+    const unread = Number(await page.getByTestId("inbox-count").textContent());
+    expect(unread).toBeGreaterThanOrEqual(1);
     await page.goto(linkIn(request, `/figures/${figureId}/versions/1`));
     await page.getByTestId("decision-form").waitFor();
+    // Opening the version marks its message read; the header's count follows.
+    await page.waitForFunction((n) => Number(document.querySelector('[data-testid="inbox-count"]')?.textContent ?? "0") === n, unread - 1, { timeout: 10_000 });
     await page.getByLabel("Your comment (needed to return it)").fill("Please compare with a beam energy of 0.6 GeV as in the run plan.");
     await page.getByRole("button", { name: "Return with comments" }).click();
     await page.getByTestId("action-result").waitFor();

@@ -109,8 +109,14 @@ export async function listNotifications(db: Db, userId: string, limit = 100) {
     .execute();
 }
 
-export async function unreadCount(db: Db, userId: string): Promise<number> {
-  const row = await db.selectFrom("notification").select((eb) => eb.fn.countAll<number>().as("n")).where("user_id", "=", userId).where("read_at", "is", null).executeTakeFirst();
+/**
+ * Unread notifications. `openingPath` is the page being loaded: its own notifications are being
+ * marked read by that page's loader, which runs alongside the header's, so they are not counted.
+ */
+export async function unreadCount(db: Db, userId: string, openingPath?: string): Promise<number> {
+  let q = db.selectFrom("notification").select((eb) => eb.fn.countAll<number>().as("n")).where("user_id", "=", userId).where("read_at", "is", null);
+  if (openingPath) q = q.where("link", "<>", openingPath);
+  const row = await q.executeTakeFirst();
   return Number(row?.n ?? 0);
 }
 
