@@ -90,7 +90,8 @@ export default function VersionPage() {
       ) : d.latestNumber > v.number ? (
         <div className="mt-3"><Notice>A newer version exists: <Link className="underline underline-offset-4" to={`${base}/versions/${d.latestNumber}`}>v{d.latestNumber}</Link>.</Notice></div>
       ) : null}
-      {result ? <div className="mt-3" data-testid="action-result"><Notice tone={result.ok ? "ok" : "caution"}>{result.message}</Notice></div> : null}
+      {/* The action's answer arrives before the page's data are reloaded: shown once both agree. */}
+      {result && !busy ? <div className="mt-3" data-testid="action-result"><Notice tone={result.ok ? "ok" : "caution"}>{result.message}</Notice></div> : null}
 
       <div className="mt-6 grid grid-cols-[1fr_22rem] gap-8 max-lg:grid-cols-1">
         <section aria-labelledby="picture-h" className="min-w-0">
