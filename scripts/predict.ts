@@ -1,5 +1,7 @@
-// `npm run --silent predict`: a prediction request as JSON on standard input, the response as
-// JSON on standard output (DESIGN.md "Prediction contract"). Exit status 2 with
+// The prediction command line, run by bin/predict (`npm run --silent predict`) from a bundle of
+// this file: a prediction request as JSON on standard input, the response as JSON on standard
+// output (docs/product.md, "Prediction contract"; request fields in
+// docs/decisions/0003-engine-conventions.md). Exit status 2 with
 // { "error": { code, message, field } } on bad input, so scripts can tell it from a crash.
 import { EngineInputError, runPrediction } from "../app/engine/index";
 

@@ -1,6 +1,5 @@
 import { describe, expect, it } from "vitest";
 import { canonicalJson } from "./canonical-json";
-import { parametersHash } from "./parameters-hash";
 
 describe("canonicalJson", () => {
   it("sorts keys at every level and writes no whitespace", () => {
@@ -17,19 +16,5 @@ describe("canonicalJson", () => {
 
   it.each([Number.NaN, Infinity, -Infinity, undefined, () => 1, 10n])("rejects %s", (bad) => {
     expect(() => canonicalJson({ a: bad })).toThrow(TypeError);
-  });
-});
-
-describe("parametersHash", () => {
-  it("is the SHA-256 hex of the canonical text", () => {
-    // reference: `printf '{}' | sha256sum` (GNU coreutils), an independent implementation
-    expect(parametersHash({})).toBe("44136fa355b3678a1146ad16f7e8649e94fb4fc21fe77e8310c060f61caaff8a");
-  });
-
-  it("does not depend on key order or number spelling", () => {
-    const a = JSON.parse('{"process":"compton","energy":{"kinetic":1.0,"unit":"MeV"},"thetaDeg":[30,6e1]}');
-    const b = JSON.parse('{"thetaDeg":[3e1,60],"energy":{"unit":"MeV","kinetic":1},"process":"compton"}');
-    expect(parametersHash(a)).toBe(parametersHash(b));
-    expect(parametersHash({ ...a, thetaDeg: [30, 61] })).not.toBe(parametersHash(a));
   });
 });

@@ -1,7 +1,7 @@
 import { integrateAdaptive, type QuadratureResult } from "./adaptive-quadrature";
 import type { Frame } from "./process-definition";
 import type { ProcessKernel } from "./process-kernel";
-import { cosThetaFromT } from "./two-body-kinematics";
+import { cosThetaFromT, mandelstamT } from "./two-body-kinematics";
 
 export type DifferentialObservable = "dsigma/dOmega" | "dsigma/dcos" | "dsigma/dt";
 export type Observable = DifferentialObservable | "sigma";
@@ -10,34 +10,56 @@ export type AngleVariable = "thetaDeg" | "cosTheta" | "t";
 const DEG = Math.PI / 180;
 
 /**
- * A differential observable at fixed energy as a function of an angle variable x (θ in degrees
- * or cos θ of the reference particle in `frame`, or t = (p_axis − p_ref)² in GeV²), in natural
- * units: dσ/dΩ in GeV⁻²/sr, dσ/dcosθ in GeV⁻², dσ/dt in GeV⁻⁴.
- * $\frac{d\sigma}{d\cos\theta} = 2\pi\frac{d\sigma}{d\Omega}$ (azimuthal symmetry of unpolarised
- * scattering); $\frac{d\sigma}{dt} = \frac{1}{2p_{in}p_{out}}\frac{d\sigma}{d\cos\theta^*}$ (from
- * $t = t_1 - 2p_{in}p_{out}(1-\cos\theta^*)$), the same in every frame. Source: standard kinematics.
+ * The mean of a differential observable dσ/dX over a bin, as a measurement defines it:
+ * $\bar y = \sigma(\text{bin})/\Delta X(\text{bin})$, X being the variable of the derivative — the
+ * solid angle in `frame` for dσ/dΩ ($\Delta\Omega = 2\pi|\cos\theta_{lo} - \cos\theta_{hi}|$), cos θ
+ * in `frame` for dσ/dcosθ, t for dσ/dt — whatever variable the bin edges are given in (θ in
+ * degrees or cos θ in `frame`, or t in GeV²). Since dσ = (dσ/dX) dX, that is the mean of
+ * dσ/dX taken uniformly in X between the bin's edges converted to X (dΩ = 2π dcos θ, so for
+ * dσ/dΩ and dσ/dcosθ uniformly in the frame's cos θ), not uniformly in θ
+ * (docs/decisions/0006-bin-means.md). Natural units as the observable.
+ * Adaptive Gauss–Kronrod at the given relative tolerance.
  */
-export function angularObservable(
+export function binMean(
   kernel: ProcessKernel,
   frame: Frame,
   observable: DifferentialObservable,
   variable: AngleVariable,
-): (x: number) => number {
+  lo: number,
+  hi: number,
+  relativeTolerance: number,
+): QuadratureResult {
   const kin = kernel.kinematics;
-  const twoPP = 2 * kin.pIn * kin.pOut;
+  let f: (x: number) => number;
+  let toX: (edge: number) => number;
   if (observable === "dsigma/dt") {
-    const cmCosOf =
+    const twoPP = 2 * kin.pIn * kin.pOut;
+    f = (t) => (2 * Math.PI * kernel.dsigmaDOmegaCm(cosThetaFromT(kin, t))) / twoPP;
+    toX =
       variable === "t"
-        ? (x: number) => cosThetaFromT(kin, x)
+        ? (t) => t
         : variable === "cosTheta"
-          ? (x: number) => kernel.cmCos(frame, x)
-          : (x: number) => kernel.cmCos(frame, Math.cos(x * DEG));
-    return (x) => (2 * Math.PI * kernel.dsigmaDOmegaCm(cmCosOf(x))) / twoPP;
+          ? (c) => mandelstamT(kin, kernel.cmCos(frame, c))
+          : (deg) => mandelstamT(kin, kernel.cmCos(frame, Math.cos(deg * DEG)));
+  } else {
+    const factor = observable === "dsigma/dcos" ? 2 * Math.PI : 1;
+    f = (c) => factor * kernel.dsigmaDOmega(frame, c);
+    toX =
+      variable === "cosTheta"
+        ? (c) => c
+        : variable === "thetaDeg"
+          ? (deg) => Math.cos(deg * DEG)
+          : (t) => kernel.frameCos(frame, cosThetaFromT(kin, t));
   }
-  const factor = observable === "dsigma/dcos" ? 2 * Math.PI : 1;
-  if (variable === "t") return (x) => factor * kernel.dsigmaDOmega(frame, kernel.frameCos(frame, cosThetaFromT(kin, x)));
-  if (variable === "cosTheta") return (x) => factor * kernel.dsigmaDOmega(frame, x);
-  return (x) => factor * kernel.dsigmaDOmega(frame, Math.cos(x * DEG));
+  const xLo = toX(lo);
+  const xHi = toX(hi);
+  const a = Math.min(xLo, xHi);
+  const b = Math.max(xLo, xHi);
+  // a bin too narrow to separate its edges in X: the mean is the value there
+  if (a === b) return { value: f(a), errorEstimate: 0, intervals: 0, converged: true };
+  const r = integrateAdaptive(f, a, b, { relativeTolerance, maxIntervals: 400 });
+  const width = b - a;
+  return { ...r, value: r.value / width, errorEstimate: r.errorEstimate / width };
 }
 
 /**

@@ -12,7 +12,9 @@ export type EnergyUnit = "GeV" | "MeV" | "keV";
 
 /**
  * The request after validation, defaults filled in: exactly what the prediction depends on.
- * Its canonical JSON is hashed into `parametersHash`.
+ * Hashed into `parametersHash` (docs/decisions/0007-parameters-hash-number-lists.md). Lists of
+ * points are the request's own arrays (not copied), so a caller must not change a request's
+ * lists while it still uses the response.
  */
 export interface PredictionParameters {
   process: ProcessDefinition["info"]["id"];
@@ -77,9 +79,18 @@ function finiteNumber(v: unknown, field: string, what: string): number {
   return v as number;
 }
 
+/**
+ * A non-empty list of finite numbers, returned as it is (not copied: a list may hold 10⁶ angles,
+ * and fresh memory costs more than evaluating them); an element's field is named only on failure.
+ */
 function numberList(v: unknown, field: string, what: string): number[] {
   if (!Array.isArray(v) || v.length === 0) fail("invalid_list", field, `${field} must be a non-empty list of numbers (${what})`);
-  return (v as unknown[]).map((x, i) => finiteNumber(x, `${field}[${i}]`, what));
+  const list = v as unknown[];
+  for (let i = 0; i < list.length; i++) {
+    const x = list[i];
+    if (typeof x !== "number" || !Number.isFinite(x)) finiteNumber(x, `${field}[${i}]`, what);
+  }
+  return list as number[];
 }
 
 function binList(v: unknown, field: string, what: string): [number, number][] {
@@ -139,10 +150,10 @@ function parseFormFactor(v: unknown, definition: ProcessDefinition): FormFactorS
 }
 
 /**
- * Validates a prediction request (DESIGN.md "Prediction contract" plus the optional fields of
- * docs/decisions/0003) and fills in the defaults. Throws EngineInputError naming the field.
- * Physics checks that need kinematics (thresholds, divergent angles, t ranges) are done when
- * the prediction is computed.
+ * Validates a prediction request (docs/product.md "Prediction contract" plus the optional
+ * fields of docs/decisions/0003-engine-conventions.md) and fills in the defaults. Throws
+ * EngineInputError naming the field. Physics checks that need kinematics (thresholds,
+ * divergent angles, t ranges) are done when the prediction is computed.
  */
 export function validatePredictionRequest(request: unknown): ValidatedRequest {
   if (!isRecord(request)) return fail("invalid_request", "", "the request must be a JSON object");

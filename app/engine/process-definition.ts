@@ -14,7 +14,7 @@ export type ProcessId =
 
 export type Frame = "lab" | "cm";
 
-/** What the page prints beside a prediction: the conventions of DESIGN.md for one process. */
+/** What the page prints beside a prediction: the conventions of one process (docs/decisions/0003-engine-conventions.md). */
 export interface ProcessInfo {
   readonly id: ProcessId;
   /** The reaction in Unicode, e.g. "φ⁺φ⁻ → γγ". */
@@ -48,14 +48,16 @@ export interface ProcessInfo {
 }
 
 /**
- * A process: its conventions and its closed form. `amplitudeSquared` is the unpolarised
- * (initial-averaged, final-summed) $\overline{|\mathcal M|^2}$ at $e^2 = 4\pi\alpha$; `fillCm`
- * is the hot path: dσ/dΩ in the CM frame (GeV⁻²/sr) at fixed s for an array of cos θ.
+ * A process: its conventions and its closed form. `fillCm` is dσ/dΩ in the CM frame (GeV⁻²/sr)
+ * at fixed s for an array of cos θ, from the unpolarised (initial-averaged, final-summed)
+ * $\overline{|\mathcal M|^2}$ at $e^2 = 4\pi\alpha$ documented in the process's file:
+ * $\frac{d\sigma}{d\Omega^*} = \frac{p_{out}}{64\pi^2 s\,p_{in}}\overline{|\mathcal M|^2}$. It is the only
+ * evaluation of the closed form: `runPrediction` sends every array of angle points through it
+ * (evaluate-angles.ts), and the kernel's scalar dσ/dΩ* (quadratures) calls it on one point.
  */
 export interface ProcessDefinition {
   readonly info: ProcessInfo;
   reactionMasses(mass: number, finalMass: number): ReactionMasses;
-  amplitudeSquared(s: number, t: number, u: number, mass: number, finalMass: number, e2: number): number;
   /**
    * Each process writes this loop out itself, calling its own closed form directly. Tried and
    * measured (npm run bench:engine, 10⁶ points): one shared loop taking the closed form as a

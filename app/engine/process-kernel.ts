@@ -1,17 +1,21 @@
 import { cmCosFromLab, cmPerLabSolidAngle, labCosFromCm, labFrameMap, type LabFrameMap } from "./lab-frame-map";
 import type { Frame, ProcessDefinition } from "./process-definition";
-import { mandelstamT, mandelstamU, twoBodyKinematics, type TwoBodyKinematics } from "./two-body-kinematics";
+import { mandelstamT, twoBodyKinematics, type TwoBodyKinematics } from "./two-body-kinematics";
 
 /**
  * A process at one energy, ready to evaluate: the CM kinematics, the lab-frame map (when the
  * process has a lab frame) and e² = 4πα are computed once, so that every evaluation is a few
  * arithmetic operations. `formFactor` multiplies dσ/dΩ by |F|² as a function of (s, t).
+ * Arrays of angle points go through `evaluateAngles`; these scalar functions serve the
+ * quadratures (bin means, σ). Both evaluate the process's own loop `fillCm`.
  */
 export interface ProcessKernel {
   readonly definition: ProcessDefinition;
   readonly kinematics: TwoBodyKinematics;
   readonly lab: LabFrameMap | null;
   readonly e2: number;
+  /** |F|² multiplying dσ/dΩ, or null. */
+  readonly formFactor: FormFactorSquared | null;
   readonly mass: number;
   readonly finalMass: number;
   /** $d\sigma/d\Omega^{*}$ in the CM frame at $\cos\theta^{*}$, GeV⁻²/sr. */
@@ -41,12 +45,15 @@ export function createProcessKernel(
   const kinematics = twoBodyKinematics(s, definition.reactionMasses(mass, finalMass));
   const lab = definition.info.frames.includes("lab") ? labFrameMap(kinematics) : null;
   const e2 = 4 * Math.PI * alpha;
-  const pref = kinematics.pOut / (64 * Math.PI * Math.PI * s * kinematics.pIn);
-  const amp = definition.amplitudeSquared;
+  // one point through the process's own loop, so that a point, a bin mean and σ all evaluate
+  // the same closed form in the same algebraic form
+  const cosOne = new Float64Array(1);
+  const valueOne = new Float64Array(1);
   const dsigmaDOmegaCm = (c: number): number => {
-    const t = mandelstamT(kinematics, c);
-    const value = pref * amp(s, t, mandelstamU(kinematics, c), mass, finalMass, e2);
-    return formFactor === null ? value : value * formFactor(s, t);
+    cosOne[0] = c;
+    definition.fillCm(kinematics, e2, cosOne, valueOne);
+    const value = valueOne[0];
+    return formFactor === null ? value : value * formFactor(s, mandelstamT(kinematics, c));
   };
   const requireLab = (): LabFrameMap => {
     if (lab === null) throw new RangeError(`${definition.info.id} has no lab frame`);
@@ -57,6 +64,7 @@ export function createProcessKernel(
     kinematics,
     lab,
     e2,
+    formFactor,
     mass,
     finalMass,
     dsigmaDOmegaCm,

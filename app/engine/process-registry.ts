@@ -10,7 +10,7 @@ import { scalarAnnihilation } from "./processes/scalar-annihilation";
 import { scalarCompton } from "./processes/scalar-compton";
 import { scalarPairProduction } from "./processes/scalar-pair-production";
 
-/** The processes in DESIGN.md's order. */
+/** The ten processes, in the order the Predictions page lists them. */
 export const PROCESS_DEFINITIONS: readonly ProcessDefinition[] = [
   scalarAnnihilation,
   scalarCompton,

@@ -4,7 +4,7 @@ import { ENGINE_VERSION, PROCESSES, runPrediction } from "./index";
 import { integrateAdaptive } from "./adaptive-quadrature";
 import integrateSimpson from "integrate-adaptive-simpson";
 
-const DESIGN_EXAMPLE = { process: "scalar-annihilation", frame: "lab", energy: { kinetic: 0.5 }, thetaDeg: [30, 60, 90], unit: "ub/sr" };
+const EXAMPLE_REQUEST = { process: "scalar-annihilation", frame: "lab", energy: { kinetic: 0.5 }, thetaDeg: [30, 60, 90], unit: "ub/sr" };
 
 function errorOf(request: unknown): EngineInputError {
   try {
@@ -16,9 +16,9 @@ function errorOf(request: unknown): EngineInputError {
   throw new Error(`expected an EngineInputError for ${JSON.stringify(request)}`);
 }
 
-describe("runPrediction: the contract of DESIGN.md", () => {
-  it("answers DESIGN.md's example with one finite value per angle and the required fields", () => {
-    const r = runPrediction(DESIGN_EXAMPLE);
+describe("runPrediction: the prediction contract (docs/product.md; request fields in docs/decisions/0003)", () => {
+  it("answers the contract's example request with one finite value per angle and the required fields", () => {
+    const r = runPrediction(EXAMPLE_REQUEST);
     expect(r.engineVersion).toBe(ENGINE_VERSION);
     expect(r.process).toBe("scalar-annihilation");
     expect(r.frame).toBe("lab");
@@ -32,19 +32,19 @@ describe("runPrediction: the contract of DESIGN.md", () => {
   });
 
   it("gives byte-identical JSON for the same request, and the same hash for other key orders and number spellings", () => {
-    const a = JSON.stringify(runPrediction(DESIGN_EXAMPLE));
-    const b = JSON.stringify(runPrediction(structuredClone(DESIGN_EXAMPLE)));
+    const a = JSON.stringify(runPrediction(EXAMPLE_REQUEST));
+    const b = JSON.stringify(runPrediction(structuredClone(EXAMPLE_REQUEST)));
     expect(a).toBe(b);
     const respelled = JSON.parse('{"unit":"ub/sr","thetaDeg":[3e1,60.0,90],"energy":{"kinetic":5e-1},"frame":"lab","process":"scalar-annihilation"}');
-    expect(runPrediction(respelled).parametersHash).toBe(runPrediction(DESIGN_EXAMPLE).parametersHash);
-    expect(runPrediction({ ...DESIGN_EXAMPLE, thetaDeg: [30, 60, 91] }).parametersHash).not.toBe(runPrediction(DESIGN_EXAMPLE).parametersHash);
+    expect(runPrediction(respelled).parametersHash).toBe(runPrediction(EXAMPLE_REQUEST).parametersHash);
+    expect(runPrediction({ ...EXAMPLE_REQUEST, thetaDeg: [30, 60, 91] }).parametersHash).not.toBe(runPrediction(EXAMPLE_REQUEST).parametersHash);
   });
 
   it("converts units consistently: ub/sr = 1000 nb/sr; MeV beside the energy", () => {
-    const ub = runPrediction(DESIGN_EXAMPLE).values;
-    const nb = runPrediction({ ...DESIGN_EXAMPLE, unit: "nb/sr" }).values;
+    const ub = runPrediction(EXAMPLE_REQUEST).values;
+    const nb = runPrediction({ ...EXAMPLE_REQUEST, unit: "nb/sr" }).values;
     nb.forEach((v, i) => expect(v / (1000 * ub[i]) - 1).toBeCloseTo(0, 12));
-    const mev = runPrediction({ ...DESIGN_EXAMPLE, energy: { kinetic: 500, unit: "MeV" } }).values;
+    const mev = runPrediction({ ...EXAMPLE_REQUEST, energy: { kinetic: 500, unit: "MeV" } }).values;
     mev.forEach((v, i) => expect(v / ub[i] - 1).toBeCloseTo(0, 12));
   });
 
@@ -66,17 +66,7 @@ describe("runPrediction: the contract of DESIGN.md", () => {
     expect(total / half - 1).toBeCloseTo(0, 8);
   });
 
-  it("bin averages equal the integral over the bin divided by its width (checked with integrate-adaptive-simpson)", () => {
-    const req = { process: "compton", frame: "lab", energy: { beam: 1, unit: "MeV" }, unit: "mb/sr" };
-    const r = runPrediction({ ...req, thetaDegBins: [[10, 20], [20, 60], [170, 180]] });
-    expect(r.binned).toBe(true);
-    const f = (x: number) => runPrediction({ ...req, thetaDeg: [x] }).values[0];
-    r.bins!.forEach(([lo, hi], i) => {
-      const ref = integrateSimpson(f, lo, hi, 1e-12, 30) / (hi - lo);
-      expect(Math.abs(r.values[i] / ref - 1), `bin [${lo}, ${hi}]: ${r.values[i]} vs ${ref}`).toBeLessThan(1e-9);
-    });
-    expect(r.quadrature).toEqual({ relativeTolerance: 1e-10, converged: true });
-  });
+  // bin means of angle bins (σ(bin)/ΔX, docs/decisions/0006-bin-means.md): bin-means.test.ts
 
   it("runs energy scans (points and bins) of σ and of dσ/dΩ at a fixed angle", () => {
     const scan = runPrediction({ process: "muon-pair", frame: "cm", observable: "sigma", scan: { sqrtS: [1, 2, 4] }, unit: "nb" });
@@ -104,7 +94,7 @@ describe("runPrediction: the contract of DESIGN.md", () => {
     expect(r.parameters.formFactor).toEqual({ ...ff, q2: "s" });
   });
 
-  it("lists the ten processes of DESIGN.md with their frames", () => {
+  it("lists the ten processes of docs/decisions/0003 with their frames", () => {
     expect(PROCESSES.map((p) => [p.id, p.frames.join("+")])).toEqual([
       ["scalar-annihilation", "lab+cm"],
       ["scalar-compton", "lab+cm"],
@@ -122,41 +112,41 @@ describe("runPrediction: the contract of DESIGN.md", () => {
 
 describe("runPrediction: bad input gets a typed error naming the field", () => {
   it.each([
-    ["unknown process", { ...DESIGN_EXAMPLE, process: "higgs" }, "unknown_process", "process"],
-    ["frame not offered", { ...DESIGN_EXAMPLE, process: "bhabha", energy: { sqrtS: 1 } }, "frame_not_offered", "frame"],
+    ["unknown process", { ...EXAMPLE_REQUEST, process: "higgs" }, "unknown_process", "process"],
+    ["frame not offered", { ...EXAMPLE_REQUEST, process: "bhabha", energy: { sqrtS: 1 } }, "frame_not_offered", "frame"],
     ["energy below threshold", { process: "photon-fusion-scalar", frame: "cm", energy: { sqrtS: 0.2 }, thetaDeg: [30] }, "below_threshold", "energy.sqrtS"],
-    ["energy at threshold of an annihilation (σ ∝ 1/v diverges)", { ...DESIGN_EXAMPLE, energy: { beam: 0.13957039 } }, "invalid_energy", "energy.beam"],
-    ["zero kinetic energy", { ...DESIGN_EXAMPLE, energy: { kinetic: 0 } }, "invalid_energy", "energy.kinetic"],
-    ["negative mass", { ...DESIGN_EXAMPLE, mass: -0.1 }, "invalid_mass", "mass"],
-    ["zero mass", { ...DESIGN_EXAMPLE, mass: 0 }, "invalid_mass", "mass"],
+    ["energy at threshold of an annihilation (σ ∝ 1/v diverges)", { ...EXAMPLE_REQUEST, energy: { beam: 0.13957039 } }, "invalid_energy", "energy.beam"],
+    ["zero kinetic energy", { ...EXAMPLE_REQUEST, energy: { kinetic: 0 } }, "invalid_energy", "energy.kinetic"],
+    ["negative mass", { ...EXAMPLE_REQUEST, mass: -0.1 }, "invalid_mass", "mass"],
+    ["zero mass", { ...EXAMPLE_REQUEST, mass: 0 }, "invalid_mass", "mass"],
     ["zero final mass", { process: "muon-pair", frame: "cm", energy: { sqrtS: 1 }, finalMass: 0, thetaDeg: [10] }, "invalid_mass", "finalMass"],
-    ["finalMass where none applies", { ...DESIGN_EXAMPLE, finalMass: 0.1 }, "not_applicable", "finalMass"],
-    ["angle above 180°", { ...DESIGN_EXAMPLE, thetaDeg: [30, 60, 181] }, "angle_out_of_range", "thetaDeg[2]"],
-    ["negative angle", { ...DESIGN_EXAMPLE, thetaDeg: [-1] }, "angle_out_of_range", "thetaDeg[0]"],
-    ["cos θ outside [−1, 1]", { ...DESIGN_EXAMPLE, thetaDeg: undefined, cosTheta: [1.5] }, "angle_out_of_range", "cosTheta[0]"],
+    ["finalMass where none applies", { ...EXAMPLE_REQUEST, finalMass: 0.1 }, "not_applicable", "finalMass"],
+    ["angle above 180°", { ...EXAMPLE_REQUEST, thetaDeg: [30, 60, 181] }, "angle_out_of_range", "thetaDeg[2]"],
+    ["negative angle", { ...EXAMPLE_REQUEST, thetaDeg: [-1] }, "angle_out_of_range", "thetaDeg[0]"],
+    ["cos θ outside [−1, 1]", { ...EXAMPLE_REQUEST, thetaDeg: undefined, cosTheta: [1.5] }, "angle_out_of_range", "cosTheta[0]"],
     ["Bhabha at 0°", { process: "bhabha", frame: "cm", energy: { sqrtS: 1 }, thetaDeg: [10, 0] }, "divergent_angle", "thetaDeg[1]"],
     ["Møller at 0°", { process: "moller", frame: "cm", energy: { sqrtS: 1 }, thetaDeg: [0] }, "divergent_angle", "thetaDeg[0]"],
     ["Møller at 180°", { process: "moller", frame: "cm", energy: { sqrtS: 1 }, thetaDeg: [90, 180] }, "divergent_angle", "thetaDeg[1]"],
     ["Møller at cos θ = −1", { process: "moller", frame: "cm", energy: { sqrtS: 1 }, cosTheta: [-1] }, "divergent_angle", "cosTheta[0]"],
     ["Bhabha bin touching 0°", { process: "bhabha", frame: "cm", energy: { sqrtS: 1 }, thetaDegBins: [[0, 10]] }, "divergent_angle", "thetaDegBins[0][0]"],
     ["Bhabha total over 4π", { process: "bhabha", frame: "cm", energy: { sqrtS: 1 }, observable: "sigma", unit: "nb" }, "divergent_total", "acceptance"],
-    ["NaN angle", { ...DESIGN_EXAMPLE, thetaDeg: [Number.NaN] }, "not_a_number", "thetaDeg[0]"],
-    ["NaN energy", { ...DESIGN_EXAMPLE, energy: { kinetic: Number.NaN } }, "not_a_number", "energy.kinetic"],
-    ["string angle", { ...DESIGN_EXAMPLE, thetaDeg: ["30"] }, "not_a_number", "thetaDeg[0]"],
-    ["unit that does not fit dσ/dΩ", { ...DESIGN_EXAMPLE, unit: "ub" }, "unit_mismatch", "unit"],
+    ["NaN angle", { ...EXAMPLE_REQUEST, thetaDeg: [Number.NaN] }, "not_a_number", "thetaDeg[0]"],
+    ["NaN energy", { ...EXAMPLE_REQUEST, energy: { kinetic: Number.NaN } }, "not_a_number", "energy.kinetic"],
+    ["string angle", { ...EXAMPLE_REQUEST, thetaDeg: ["30"] }, "not_a_number", "thetaDeg[0]"],
+    ["unit that does not fit dσ/dΩ", { ...EXAMPLE_REQUEST, unit: "ub" }, "unit_mismatch", "unit"],
     ["unit that does not fit σ", { process: "compton", frame: "lab", energy: { beam: 0.001 }, observable: "sigma", unit: "nb/sr" }, "unit_mismatch", "unit"],
-    ["unknown unit", { ...DESIGN_EXAMPLE, unit: "barns" }, "unknown_unit", "unit"],
-    ["unknown energy unit", { ...DESIGN_EXAMPLE, energy: { kinetic: 1, unit: "eV" } }, "unknown_unit", "energy.unit"],
-    ["two energies", { ...DESIGN_EXAMPLE, energy: { kinetic: 1, sqrtS: 2 } }, "invalid_energy", "energy"],
+    ["unknown unit", { ...EXAMPLE_REQUEST, unit: "barns" }, "unknown_unit", "unit"],
+    ["unknown energy unit", { ...EXAMPLE_REQUEST, energy: { kinetic: 1, unit: "eV" } }, "unknown_unit", "energy.unit"],
+    ["two energies", { ...EXAMPLE_REQUEST, energy: { kinetic: 1, sqrtS: 2 } }, "invalid_energy", "energy"],
     ["kinetic energy for γγ", { process: "breit-wheeler", frame: "cm", energy: { kinetic: 1 }, thetaDeg: [10] }, "energy_kind_unavailable", "energy.kinetic"],
     ["t outside its range", { process: "muon-pair", frame: "cm", energy: { sqrtS: 1 }, observable: "dsigma/dt", t: [0.5], unit: "nb/GeV^2" }, "t_out_of_range", "t[0]"],
-    ["no angles", { ...DESIGN_EXAMPLE, thetaDeg: undefined }, "missing_field", "thetaDeg"],
-    ["misspelt field", { ...DESIGN_EXAMPLE, thetadeg: [1] }, "unknown_field", "thetadeg"],
+    ["no angles", { ...EXAMPLE_REQUEST, thetaDeg: undefined }, "missing_field", "thetaDeg"],
+    ["misspelt field", { ...EXAMPLE_REQUEST, thetadeg: [1] }, "unknown_field", "thetadeg"],
     ["form factor on a lepton process", { process: "muon-pair", frame: "cm", energy: { sqrtS: 1 }, thetaDeg: [10], formFactor: { model: "vmd", mass: 0.77, width: 0.15 } }, "not_applicable", "formFactor"],
     ["monopole pole reached", { process: "scalar-pair-production", frame: "cm", energy: { sqrtS: 0.7 }, thetaDeg: [10], formFactor: { model: "monopole", lambda: 0.7 } }, "form_factor_pole", "formFactor"],
     ["scan below threshold", { process: "muon-pair", frame: "cm", observable: "sigma", scan: { sqrtS: [1, 0.2] }, unit: "nb" }, "below_threshold", "scan.sqrtS[1]"],
     ["not an object", [1, 2], "invalid_request", ""],
-    ["α out of range", { ...DESIGN_EXAMPLE, alpha: 0 }, "invalid_alpha", "alpha"],
+    ["α out of range", { ...EXAMPLE_REQUEST, alpha: 0 }, "invalid_alpha", "alpha"],
   ])("%s", (_label, request, code, field) => {
     const e = errorOf(JSON.parse(JSON.stringify(request, (_k, v) => (typeof v === "number" && Number.isNaN(v) ? "__NaN__" : v)), (_k, v) => (v === "__NaN__" ? Number.NaN : v)));
     expect({ code: e.code, field: e.field }).toEqual({ code, field });

@@ -3,7 +3,8 @@ import { EngineInputError } from "./engine-input-error";
 import { ENGINE_VERSION } from "./engine-version";
 import { checkFormFactorRange, formFactorSquared } from "./form-factor";
 import { mandelstamSFromEnergy, type EnergyKind } from "./mandelstam-s-from-energy";
-import { angularObservable, sigmaInAcceptance, type AngleVariable, type DifferentialObservable, type Observable } from "./observables";
+import { evaluateAngles } from "./evaluate-angles";
+import { binMean, sigmaInAcceptance, type AngleVariable, type DifferentialObservable, type Observable } from "./observables";
 import { parametersHash } from "./parameters-hash";
 import type { Frame, ProcessDefinition, ProcessId } from "./process-definition";
 import { createProcessKernel, type ProcessKernel } from "./process-kernel";
@@ -120,6 +121,13 @@ function acceptanceRange(kernel: ProcessKernel, p: PredictionParameters): [numbe
   return [lo, hi];
 }
 
+/** The differential observable at the request's angle points, checked and in the unit `toUnit`. */
+function pointValues(kernel: ProcessKernel, p: PredictionParameters, xs: readonly number[], toUnit: number, fieldOf: (i: number) => string): number[] {
+  const variable = p.angle!.variable;
+  const check = (x: number, field: string) => checkAngle(kernel, p.frame, variable, x, field);
+  return evaluateAngles(kernel, p.frame, p.observable as DifferentialObservable, variable, xs, toUnit, check, fieldOf);
+}
+
 function finite(values: number[], field: (i: number) => string): number[] {
   values.forEach((v, i) => {
     if (!Number.isFinite(v)) throw new EngineInputError("non_finite_result", field(i), `the prediction is not finite at ${field(i)}: move it away from the singular point`);
@@ -128,9 +136,13 @@ function finite(values: number[], field: (i: number) => string): number[] {
 }
 
 /**
- * The prediction contract (DESIGN.md): validates the request, computes the values in the
- * requested unit and returns them with the engine version and the SHA-256 of the canonical
- * parameters. Pure and deterministic: the same request gives bit-identical output.
+ * The prediction contract (docs/product.md, "Prediction contract"; request fields in
+ * docs/decisions/0003-engine-conventions.md): validates the request, computes the values in the
+ * requested unit and returns them with the engine version and the parameters' SHA-256
+ * (docs/decisions/0007-parameters-hash-number-lists.md). Arrays of angle points go through the
+ * process's own loop (`evaluateAngles`); bin means are σ(bin)/ΔX
+ * (docs/decisions/0006-bin-means.md). Pure and deterministic: the same request gives
+ * bit-identical output. The response shares the request's number lists (not copied).
  * Throws EngineInputError (HTTP 422 / exit status 2) naming the field to change.
  */
 export function runPrediction(request: unknown): PredictionResponse {
@@ -169,15 +181,19 @@ export function runPrediction(request: unknown): PredictionResponse {
     } else {
       const a = p.angle!;
       variable = a.variable;
-      const f = angularObservable(kernel, p.frame, p.observable as DifferentialObservable, a.variable);
+      const observable = p.observable as DifferentialObservable;
       if (a.points !== null) {
         points = a.points;
-        a.points.forEach((x, i) => checkAngle(kernel, p.frame, a.variable, x, `${a.variable}[${i}]`));
-        values = a.points.map((x) => f(x) * toUnit);
+        values = pointValues(kernel, p, a.points, toUnit, (i) => `${a.variable}[${i}]`);
       } else {
         bins = a.bins!;
         bins.forEach((b, i) => checkAngleBin(kernel, p.frame, a.variable, b, `${a.variable}Bins[${i}]`));
-        values = bins.map(([lo, hi]) => mean(f, lo, hi) * toUnit);
+        values = bins.map(([lo, hi]) => {
+          usedQuadrature = true;
+          const r = binMean(kernel, p.frame, observable, a.variable, lo, hi, tol);
+          converged &&= r.converged;
+          return r.value * toUnit;
+        });
       }
     }
     const name = variable ?? "sigma";
@@ -189,8 +205,7 @@ export function runPrediction(request: unknown): PredictionResponse {
     const valueAt = (kernel: ProcessKernel) => {
       if (p.observable === "sigma") return sigma(kernel);
       const a = p.angle!;
-      checkAngle(kernel, p.frame, a.variable, a.points![0], `${a.variable}[0]`);
-      return angularObservable(kernel, p.frame, p.observable as DifferentialObservable, a.variable)(a.points![0]);
+      return pointValues(kernel, p, a.points!, 1, (i) => `${a.variable}[${i}]`)[0];
     };
     if (sc.points !== null) {
       points = sc.points;

@@ -2,7 +2,7 @@ import { describe, expect, it } from "vitest";
 import { EngineInputError } from "./engine-input-error";
 import { parseUnit } from "./units";
 
-// Conversions from CODATA 2018: 1 GeV⁻² = 0.3893793721 mb; 1 b = 100 fm² = 1e-24 cm² (REFERENCES.md).
+// Conversions: 1 GeV⁻² = (ħc)² = 0.3893793721 mb (CODATA 2018); 1 b = 100 fm² = 1e-24 cm² (the barn's definition).
 const GEV2_IN_MB = 0.3893793721;
 
 describe("parseUnit", () => {

@@ -21,6 +21,11 @@ describe("axis ticks", () => {
     expect(axisTicks([1, 30], "log", 5).map((t) => t.value)).toEqual([1, 2, 5, 10, 20]);
   });
 
+  it("keeps one label style on a short log axis: plain numbers in 0.01…5000, powers of ten beyond", () => {
+    expect(axisTicks([1, 30], "log", 5).map((t) => t.tex)).toEqual(["1", "2", "5", "10", "20"]);
+    expect(axisTicks([7e3, 8e4], "log", 5).map((t) => t.tex)).toEqual(["10^{4}", "2 \\times 10^{4}", "5 \\times 10^{4}"]);
+  });
+
   it("places values linearly or logarithmically along the axis", () => {
     expect(axisPosition(90, [0, 180], "linear", 100)).toBe(50);
     expect(axisPosition(10, [1, 100], "log", 100)).toBeCloseTo(50, 12);

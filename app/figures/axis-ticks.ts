@@ -36,9 +36,14 @@ export function axisTicks(domain: readonly [number, number], scale: ScaleType, c
     if (span < 2) {
       for (const m of [2, 5]) {
         const w = Number(`${m}e${d}`);
-        if (inside(w)) result.push({ value: w, tex: plainNumber(w) });
+        if (inside(w)) result.push({ value: w, tex: `${m} \\times 10^{${d}}` });
       }
     }
+  }
+  // Less than two decades also label 2 and 5 times a power of ten; one style for the whole axis:
+  // plain numbers when every label is between 0.01 and 5000, powers of ten otherwise.
+  if (span < 2 && result.every((t) => t.value >= 0.01 && t.value <= 5000)) {
+    for (const t of result) t.tex = plainNumber(t.value);
   }
   return result.sort((a, b) => a.value - b.value);
 }

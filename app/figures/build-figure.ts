@@ -77,7 +77,8 @@ export function buildFigure(model: FigureModel, data: FigureData, preset: SizePr
   const hasStrip = model.panels.some((p) => p.strip !== "none");
   const strips = data.panels.map((p) => stripData(p, model));
 
-  const stripTicks = strips.map((s) => (s === null ? [] : axisTicks(s.domain, "linear", 3)));
+  // A strip's tick at its upper end would touch the main panel's lowest label: left out.
+  const stripTicks = strips.map((s) => (s === null ? [] : axisTicks(s.domain, "linear", 3).filter((t) => t.value < s.domain[1] - 1e-9 * Math.abs(s.domain[1] - s.domain[0]))));
   const tickWidth = (ticks: AxisTick[]) => Math.max(0, ...ticks.map((t) => measure(t.tex, f).widthPt));
   const tickHeight = (ticks: AxisTick[]) => Math.max(0, ...ticks.map((t) => measure(t.tex, f).heightPt + measure(t.tex, f).depthPt));
   const yTitle = measure(model.y.label, f);

@@ -74,10 +74,39 @@ export function reactionTex(reaction: string): string {
   return [...reaction].map((c) => REACTION_SYMBOLS[c] ?? c).join("").trim();
 }
 
-/** Escapes text for \text{…}: braces, backslashes and the TeX specials become harmless. */
+/** Characters the figure font has only in math: written as TeX math between the text runs. */
+const MATH_IN_TEXT: Record<string, string> = {
+  "⁺": "^{+}", "⁻": "^{-}", "⁰": "^{0}", "¹": "^{1}", "²": "^{2}", "³": "^{3}",
+  "₀": "_{0}", "₁": "_{1}", "₂": "_{2}",
+  "→": "\\to ", "±": "\\pm ", "×": "\\times ", "·": "\\cdot ", "−": "-", "≈": "\\approx ", "≤": "\\le ", "≥": "\\ge ",
+  γ: "\\gamma ", φ: "\\phi ", π: "\\pi ", μ: "\\mu ", µ: "\\mu ", θ: "\\theta ", σ: "\\sigma ", Ω: "\\Omega ", α: "\\alpha ", Λ: "\\Lambda ",
+  "√": "\\surd ",
+};
+
+/**
+ * Plain words (a dataset's name) as TeX: runs of text in \text{…} with the TeX specials escaped,
+ * and the signs the figure font has only in math (e⁺e⁻ → γγ) written as math between them.
+ */
 export function plainTextTex(text: string): string {
-  const escaped = text.replace(/[\\{}$&#^_%~]/g, (c) => (c === "\\" ? "" : c === "~" || c === "^" ? "" : `\\${c}`));
-  return `\\text{${escaped}}`;
+  const out: string[] = [];
+  let run = "";
+  const flush = () => {
+    if (run !== "") out.push(`\\text{${run}}`);
+    run = "";
+  };
+  for (const c of text) {
+    const math = MATH_IN_TEXT[c];
+    if (math !== undefined) {
+      flush();
+      out.push(math);
+    } else if (c === "\\" || c === "~" || c === "^") {
+      continue;
+    } else {
+      run += /[{}$&#_%]/.test(c) ? `\\${c}` : c;
+    }
+  }
+  flush();
+  return out.join("").trim() || "\\text{}";
 }
 
 /** A sentence for the alt-text field: what is plotted against what, over which ranges. */

@@ -43,6 +43,8 @@ export async function renderFigure(model: FigureModel, inputs: DatasetInputs, me
   const problems = [...data.problems];
   if (findPreset(model.preset) === undefined) problems.push({ layerId: null, message: `unknown size preset "${model.preset}": drawn at the default size` });
   let built = buildFigure(model, data, preset, cache.measure);
+  // Every placed label must be typeset, also those the layout did not need to measure.
+  for (const t of built.texts) cache.measure(t.tex, t.sizePt);
   if (cache.hasMissing) {
     await cache.fill();
     built = buildFigure(model, data, preset, cache.measure);

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { describeFigure, reactionTex, unitTex, xLabelTex, yLabelTex } from "./figure-labels";
+import { describeFigure, plainTextTex, reactionTex, unitTex, xLabelTex, yLabelTex } from "./figure-labels";
 import { emptyFigureModel, figureModelFromDataset } from "./starter-model";
 
 const ID = "3d3c2b1a-0f9e-4d8c-b7a6-123456789abc";
@@ -55,5 +55,17 @@ describe("a figure started from a dataset", () => {
     expect(describeFigure(m, { x: [0, 180], y: [0.01, 100] })).toBe(
       "dσ/dΩ in ub/sr (log scale, 0.01 to 100) against θ (lab, degrees) from 0 to 180, 0 measured datasets with error bars and 0 predictions.",
     );
+  });
+});
+
+describe("plain words as TeX", () => {
+  it("typesets a dataset name with reaction signs and TeX specials without a TeX error", async () => {
+    const { renderTex } = await import("./tex/render-tex");
+    const name = "e⁺e⁻ → γγ photon angular distribution, T = 0.5 GeV (synthetic) 100% {run_7} & more";
+    const tex = plainTextTex(name);
+    expect(tex).toContain("\\text{e}^{+}\\text{e}^{-}\\text{ }\\to \\text{ }\\gamma \\gamma \\text{ photon");
+    expect(tex).toContain("100\\% \\{run\\_7\\} \\& more");
+    const rendered = await renderTex(tex, { fontSizePt: 8 });
+    expect(rendered.widthPt).toBeGreaterThan(100);
   });
 });

@@ -89,3 +89,9 @@ export function figureModelFromDataset(d: StarterDataset): FigureModel {
     panels: [{ id: "main", strip: prediction === null ? "none" : "ratio", layers: prediction === null ? [data] : [prediction, data] }],
   });
 }
+
+/** The quick look of a dataset revision: its points with their error bars, no prediction, no legend. */
+export function quickLookModel(d: Omit<StarterDataset, "process" | "beamEnergyGeV">, yScale: "linear" | "log"): FigureModel {
+  const m = figureModelFromDataset({ ...d, process: null, beamEnergyGeV: null });
+  return figureModelSchema.parse({ ...m, preset: "double-column", panelHeightMm: 60, y: { ...m.y, scale: yScale }, legend: { position: "none", statistics: "none" } });
+}

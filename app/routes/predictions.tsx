@@ -122,7 +122,7 @@ export default function Predictions() {
                 slot={slot === "range" || slot === RANGE_FIELDS.from || slot === RANGE_FIELDS.to || slot === RANGE_FIELDS.count ? slot : null}
                 message={problem?.message}
               />
-              <Check label="Bin-averaged: the mean over equal bins instead of values at points" checked={form.binned} onChange={set("binned")} />
+              <Check label="Bin-averaged over equal bins instead of values at points: an angle bin gives the cross section in the bin divided by the bin's width in the variable of the derivative (its solid angle ΔΩ for dσ/dΩ, Δcos θ for dσ/dcos θ, Δt for dσ/dt), as a measured bin does; an energy bin gives the mean over its energies" checked={form.binned} onChange={set("binned")} />
             </div>
           )}
           {scan && differential ? (

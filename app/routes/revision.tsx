@@ -9,9 +9,14 @@ import { db } from "~/.server/platform/db.server";
 import { Fingerprint } from "~/components/fingerprint";
 import { Shape } from "~/components/ui/shape";
 import { ManuscriptNav } from "~/components/manuscript-nav";
+import { QuickLook } from "~/components/figure-editor/quick-look";
+import { loadDatasetInputs } from "~/.server/figures/figure-inputs.server";
+import type { QuantityDescription } from "~/datasets";
+import { quickLookModel } from "~/figures/starter-model";
 import { describeQuantity, displayScale, formatValue } from "~/components/quantity-labels";
 
 const PAGE_SIZE = 50;
+const QUICK_LOOK_MAX_ROWS = 5000;
 const Query = z.object({
   page: z.coerce.number().int().min(1).catch(1),
   sort: z.enum(ROW_SORTS).catch("idx"),
@@ -25,7 +30,10 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const pages = Math.max(1, Math.ceil(revision.row_count / PAGE_SIZE));
   const current = Math.min(q.page, pages);
   const rows = await revisionRowsPage(db, revision.id, { offset: (current - 1) * PAGE_SIZE, limit: PAGE_SIZE, sort: q.sort, dir: q.dir });
-  return { ...page, dataset: { id: dataset.id, name: dataset.name, quantity: dataset.quantity }, revision, rows, query: { ...q, page: current }, pages };
+  const look = quickLookModel({ id: dataset.id, name: dataset.name, quantity: revision.quantity as unknown as QuantityDescription, revisionNumber: revision.number }, "log");
+  // The quick look draws every point in the browser; beyond a few thousand it would only slow the page.
+  const lookInputs = revision.row_count <= QUICK_LOOK_MAX_ROWS ? await loadDatasetInputs(db, dataset.manuscript_id, look) : null;
+  return { look, lookInputs, ...page, dataset: { id: dataset.id, name: dataset.name, quantity: dataset.quantity }, revision, rows, query: { ...q, page: current }, pages };
 }
 
 type Row = Awaited<ReturnType<typeof loader>>["rows"][number];
@@ -33,7 +41,7 @@ type Row = Awaited<ReturnType<typeof loader>>["rows"][number];
 const fmt = formatValue;
 
 export default function RevisionPage() {
-  const { manuscript, role, can, dataset, revision, rows, query, pages } = useLoaderData<typeof loader>();
+  const { manuscript, role, can, dataset, revision, rows, query, pages, look, lookInputs } = useLoaderData<typeof loader>();
   const [, setParams] = useSearchParams();
   const navigate = useNavigate();
   const has = (k: keyof Row) => rows.some((r) => r[k] != null);
@@ -70,6 +78,10 @@ export default function RevisionPage() {
         <dt className="text-ink-soft">original file</dt><dd>{revision.raw_filename} · <span className="num">{Number(revision.raw_bytes).toLocaleString("en")}</span> bytes · <Fingerprint value={revision.raw_sha256} /></dd>
       </dl>
       <p className="mt-3 text-xs text-ink-faint">Shown in the dataset's units (8 significant digits). The revision's fingerprint is taken over its normal form: angles in degrees, t in GeV², energies in GeV, cross sections in GeV⁻² (per sr, per GeV² where they apply), 12 significant digits.</p>
+      <div className="mt-4">
+        {lookInputs ? <QuickLook model={look} inputs={lookInputs} title={`${dataset.name} r${revision.number}`} />
+          : <p className="text-sm text-ink-soft">No quick look: this revision has more than {QUICK_LOOK_MAX_ROWS.toLocaleString("en")} rows. Put it in a figure to draw it.</p>}
+      </div>
       <table className="mt-4 w-full text-sm" aria-label={`Rows of r${revision.number}`}>
         <thead className="border-b border-rule text-left">
           {table.getHeaderGroups().map((g) => (

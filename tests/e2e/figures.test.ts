@@ -34,9 +34,17 @@ async function previewSvg(page: Page): Promise<string> {
   });
 }
 
-async function waitSaved(page: Page): Promise<number> {
-  await page.waitForFunction(() => /^saved · revision \d+$/.test(document.querySelector('[data-testid="save-state"]')?.textContent ?? ""), undefined, { timeout: 20_000 });
-  return Number(/revision (\d+)/.exec((await page.getByTestId("save-state").textContent()) ?? "")![1]);
+/** Waits until the draft is saved at a revision after `after`, and returns that revision. */
+async function waitSaved(page: Page, after: number): Promise<number> {
+  const handle = await page.waitForFunction(
+    (prev) => {
+      const m = /^saved · revision (\d+)$/.exec(document.querySelector('[data-testid="save-state"]')?.textContent ?? "");
+      return m !== null && Number(m[1]) > prev ? Number(m[1]) : false;
+    },
+    after,
+    { timeout: 20_000 },
+  );
+  return (await handle.jsonValue()) as number;
 }
 
 /** Waits until the preview shows the saved revision (its metadata names it). */
@@ -77,11 +85,12 @@ describe("the figure composer", () => {
     await page.getByTestId("add-prediction-0").selectOption("scalar-annihilation");
     const energy = page.locator('[data-testid^="energy-prediction-"]').last();
     await energy.waitFor();
-    const afterAdd = await previewOfRevision(page, await waitSaved(page));
+    const added = await waitSaved(page, 1);
+    const afterAdd = await previewOfRevision(page, added);
     expect(afterAdd).not.toBe(before);
 
     await energy.fill("0.9");
-    const revision = await waitSaved(page);
+    const revision = await waitSaved(page, added);
     const afterEnergy = await previewOfRevision(page, revision);
     expect(afterEnergy).not.toBe(afterAdd);
     await page.screenshot({ path: path.join(shots, "figure-composer.png"), fullPage: true });
@@ -96,7 +105,7 @@ describe("the figure composer", () => {
     await second.goto(page.url());
     await second.getByTestId("figure-preview").locator("svg").first().waitFor({ timeout: 30_000 });
     await page.getByTestId("strip-0").selectOption("pull");
-    await waitSaved(page);
+    await waitSaved(page, revision);
     await second.getByTestId("strip-0").selectOption("none");
     await second.getByTestId("conflict").waitFor({ timeout: 20_000 });
     await expect(second.getByTestId("conflict").textContent()).resolves.toMatch(/saved this draft since you opened it/);
@@ -105,4 +114,37 @@ describe("the figure composer", () => {
     expect(stored.model.panels[0].strip).toBe("pull");
     expect(errors).toEqual([]);
   });
+
+  it("shows the figure at printed size with a mm ruler, and a revision's quick look of its points", async () => {
+    await browser.context.clearCookies();
+    const page = await browser.context.newPage();
+    const errors: string[] = [];
+    page.on("pageerror", (e) => errors.push(`pageerror: ${e.message}`));
+    await page.setViewportSize({ width: 1440, height: 900 });
+    await signIn(page);
+    await page.getByRole("link", { name: /Kestrel Ridge/ }).first().click();
+    await page.getByRole("link", { name: "Figures", exact: true }).click();
+    await page.locator("table a").first().click();
+    await page.getByTestId("figure-preview").locator("svg").first().waitFor({ timeout: 30_000 });
+    await page.getByLabel("at printed size, with a ruler").check();
+    const view = page.getByTestId("true-size");
+    await view.waitFor();
+    await expect(view.textContent()).resolves.toMatch(/At printed size: 86 × \d+ mm\. Smallest text 8\.0 pt, thinnest line 0\.\d+ pt/);
+    // 86 mm at CSS's 96 px per inch.
+    const box = await view.locator("div[style]").boundingBox();
+    expect(Math.abs(box!.width - (86 / 25.4) * 96)).toBeLessThan(1.5);
+    await page.screenshot({ path: path.join(shots, "figure-true-size.png") });
+
+    await page.getByRole("link", { name: "Datasets", exact: true }).click();
+    await page.locator("ul.divide-y a").first().click();
+    await page.getByRole("link", { name: /^r\d+$/ }).first().click();
+    const look = page.getByTestId("quick-look");
+    await look.locator("svg").first().waitFor({ timeout: 30_000 });
+    const logSvg = await look.innerHTML();
+    await page.getByLabel("linear y").check();
+    await page.waitForFunction((before) => (document.querySelector('[data-testid="quick-look"]')?.innerHTML ?? before) !== before, logSvg, { timeout: 20_000 });
+    await page.screenshot({ path: path.join(shots, "revision-quick-look.png") });
+    expect(errors).toEqual([]);
+  });
 });
+

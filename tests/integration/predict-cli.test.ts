@@ -1,7 +1,9 @@
-// `npm run --silent predict` (docs/product.md "Prediction contract"): the request on standard input,
-// the response JSON alone on standard output, exit status 2 with the error JSON for bad input;
-// the same bytes as the HTTP API for the same request.
+// `bin/predict`, what `npm run --silent predict` calls (docs/product.md "Prediction contract"):
+// the request on standard input, the response JSON alone on standard output, exit status 2 with
+// the error JSON for bad input; the same bytes as the HTTP API and as scripts/predict.ts run from
+// source for the same request; its bundle rebuilt when an input changes.
 import { spawn } from "node:child_process";
+import { statSync, utimesSync } from "node:fs";
 import path from "node:path";
 import { fileURLToPath } from "node:url";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -31,7 +33,8 @@ function run(command: string, args: string[], stdin: string): Promise<Run> {
   });
 }
 
-const predictCli = (stdin: string) => run(path.join(ROOT, "node_modules/.bin/tsx"), ["scripts/predict.ts"], stdin);
+const predictCli = (stdin: string) => run(process.execPath, ["bin/predict"], stdin);
+const predictFromSource = (stdin: string) => run(path.join(ROOT, "node_modules/.bin/tsx"), ["scripts/predict.ts"], stdin);
 
 /** Standard output must be exactly one JSON document on one line. */
 function onlyJson(out: string): unknown {
@@ -51,7 +54,7 @@ beforeAll(async () => {
 });
 afterAll(() => db.destroy());
 
-describe("npm run predict", () => {
+describe("bin/predict (npm run predict)", () => {
   it("prints the contract response for a good request and exits 0", async () => {
     const r = await predictCli(JSON.stringify(REQUEST));
     expect(r.code, r.stderr).toBe(0);
@@ -70,6 +73,31 @@ describe("npm run predict", () => {
     expect(cli.code).toBe(0);
     const httpText = await res.text();
     expect(cli.stdout).toBe(`${httpText}\n`);
+  });
+
+  it("prints the same bytes as scripts/predict.ts run from source (tsx), for a good and a bad request", async () => {
+    for (const request of [REQUEST, { ...REQUEST, thetaDeg: [30, 200] }]) {
+      const [bundled, source] = await Promise.all([predictCli(JSON.stringify(request)), predictFromSource(JSON.stringify(request))]);
+      expect(bundled.code).toBe(source.code);
+      expect(bundled.stdout).toBe(source.stdout);
+    }
+  });
+
+  it("rebuilds its bundle when one of its inputs changes, with the same answer", async () => {
+    const bundle = path.join(ROOT, "node_modules/.cache/steradian-predict/predict.mjs");
+    const before = await predictCli(JSON.stringify(REQUEST)); // builds if needed
+    const builtAt = statSync(bundle).mtimeMs;
+    const input = path.join(ROOT, "app/engine/engine-version.ts");
+    const { atime, mtime } = statSync(input);
+    utimesSync(input, atime, new Date(mtime.getTime() + 1000));
+    try {
+      const after = await predictCli(JSON.stringify(REQUEST));
+      expect(statSync(bundle).mtimeMs).toBeGreaterThan(builtAt);
+      expect(after.stdout).toBe(before.stdout);
+    } finally {
+      utimesSync(input, atime, mtime);
+    }
+    await predictCli(JSON.stringify(REQUEST)); // leave a bundle that matches the restored time
   });
 
   it("works through npm itself with --silent: stdout is the JSON and nothing else", async () => {

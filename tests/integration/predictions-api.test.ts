@@ -1,4 +1,4 @@
-// The prediction contract over HTTP (DESIGN.md "Prediction contract"), against the running app:
+// The prediction contract over HTTP (docs/product.md "Prediction contract"), against the running app:
 // who may call it, the shape and determinism of the answer, values against published closed
 // forms computed here, and one 422 per kind of bad input naming the field to change.
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -24,7 +24,7 @@ beforeAll(async () => {
   token = secret;
 });
 
-// CODATA 2018 values (/work/shared/REFERENCES.md), typed here rather than taken from the engine.
+// CODATA 2018 recommended values (α, (ħc)², m_e, r_e), typed here rather than taken from the engine.
 const ALPHA = 1 / 137.035999084;
 const HBARC2_GEV2_MB = 0.3893793721;
 const ELECTRON_MASS_GEV = 0.51099895e-3;

@@ -45,7 +45,8 @@ export function useFigurePreview(model: FigureModel | null, inputs: DatasetInput
           svg: out.svg, problems: out.problems, texErrors: out.texErrors,
           smallestTextPt: out.built.smallestTextPt, thinnestLinePt: out.built.thinnestLinePt,
           xDomain: out.data.xDomain, yDomain: out.data.yDomain,
-          renderMs: Math.round((performance.now() - editedAt) * 10) / 10, renderedKey: key, error: null,
+          // Measured from an edit only; the first drawing after the page loads is not an edit.
+          renderMs: editedAt > 0 ? Math.round((performance.now() - editedAt) * 10) / 10 : null, renderedKey: key, error: null,
         });
       })
       .catch((error: unknown) => {

@@ -46,7 +46,6 @@ export const bhabha: ProcessDefinition = {
     needsSqrtS: false,
   },
   reactionMasses: (mass) => ({ axis: mass, partner: mass, reference: mass, recoil: mass }),
-  amplitudeSquared: (s, t, u, mass, _finalMass, e2) => bhabhaAmplitudeSquared(s, t, u, mass, e2),
   fillCm(kin, e2, cosTheta, out) {
     const m = kin.masses.axis;
     const pref = kin.pOut / (64 * Math.PI * Math.PI * kin.s * kin.pIn);

@@ -45,7 +45,6 @@ export const compton: ProcessDefinition = {
     needsSqrtS: false,
   },
   reactionMasses: (mass) => ({ axis: 0, partner: mass, reference: 0, recoil: mass }),
-  amplitudeSquared: (s, t, u, mass, _finalMass, e2) => comptonAmplitudeSquared(s, t, u, mass, e2),
   fillCm(kin, e2, cosTheta, out) {
     const m = kin.masses.partner;
     const pref = kin.pOut / (64 * Math.PI * Math.PI * kin.s * kin.pIn);

@@ -39,7 +39,6 @@ export const muonPair: ProcessDefinition = {
     needsSqrtS: false,
   },
   reactionMasses: (mass, finalMass) => ({ axis: mass, partner: mass, reference: finalMass, recoil: finalMass }),
-  amplitudeSquared: (s, t, u, mass, finalMass, e2) => muonPairAmplitudeSquared(s, t, u, mass, finalMass, e2),
   fillCm(kin, e2, cosTheta, out) {
     const m = kin.masses.axis;
     const M = kin.masses.reference;

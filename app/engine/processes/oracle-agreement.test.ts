@@ -1,4 +1,5 @@
 import { describe, expect, it } from "vitest";
+import { runPrediction } from "../index";
 import { PHYSICAL_CONSTANTS } from "../physical-constants";
 import type { Frame, ProcessId } from "../process-definition";
 import { createProcessKernel } from "../process-kernel";
@@ -76,6 +77,34 @@ describe("closed forms agree with the numerical tree amplitudes", () => {
           if (!(difference <= TOLERANCE)) failures.push({ input, got, expected, difference });
         }
         expect(checked).toBe(POINTS);
+        expect(failures, report(failures)).toEqual([]);
+      });
+
+      it(`${id} in the ${frame} frame: ${POINTS} random angles in one runPrediction request (the array path; relative ${TOLERANCE})`, () => {
+        const rand = seededRandom(5000 + PROCESS_DEFINITIONS.indexOf(def) * 10 + (frame === "lab" ? 1 : 0));
+        const mass = def.info.defaultMass;
+        const finalMass = def.info.defaultFinalMass ?? mass;
+        const m = oracleMasses(id, mass, finalMass);
+        const cosines = Array.from({ length: POINTS }, () => -0.999 + 1.998 * rand());
+        const params = { e, mass, finalMass };
+        let expected: number[];
+        let energy: Record<string, number>;
+        if (frame === "cm") {
+          const sqrtS = 3 * Math.max(m.a + m.b, m.c + m.d);
+          energy = { sqrtS };
+          expected = cosines.map((cos) => oracleDsigmaDOmegaCm(id, cmMomenta(sqrtS, m, cos, 0.7), params));
+        } else {
+          const kinetic = 2 * m.b;
+          energy = { kinetic };
+          expected = cosines.map((cos) => oracleDsigmaDOmegaLab(id, labMomentaMasslessReference(kinetic + m.a, m, cos, 0.7), params));
+        }
+        const got = runPrediction({ process: id, frame, energy, cosTheta: cosines, unit: "GeV^-2/sr" }).values;
+        const failures: Failure[] = [];
+        got.forEach((value, i) => {
+          const difference = Math.abs(value - expected[i]) / Math.abs(expected[i]);
+          if (!(difference <= TOLERANCE)) failures.push({ input: { id, frame, ...energy, cos: cosines[i] }, got: value, expected: expected[i], difference });
+        });
+        expect(got).toHaveLength(POINTS);
         expect(failures, report(failures)).toEqual([]);
       });
     }

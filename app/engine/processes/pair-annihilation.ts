@@ -42,7 +42,6 @@ export const pairAnnihilation: ProcessDefinition = {
     needsSqrtS: false,
   },
   reactionMasses: (mass) => ({ axis: mass, partner: mass, reference: 0, recoil: 0 }),
-  amplitudeSquared: (s, t, u, mass, _finalMass, e2) => pairAnnihilationAmplitudeSquared(s, t, u, mass, e2),
   fillCm(kin, e2, cosTheta, out) {
     const m = kin.masses.axis;
     const pref = kin.pOut / (64 * Math.PI * Math.PI * kin.s * kin.pIn);

@@ -36,7 +36,6 @@ export const photonFusionScalar: ProcessDefinition = {
     needsSqrtS: true,
   },
   reactionMasses: (mass) => ({ axis: 0, partner: 0, reference: mass, recoil: mass }),
-  amplitudeSquared: (s, t, u, mass, _finalMass, e2) => photonFusionScalarAmplitudeSquared(s, t, u, mass, e2),
   fillCm(kin, e2, cosTheta, out) {
     const m = kin.masses.reference;
     const pref = kin.pOut / (64 * Math.PI * Math.PI * kin.s * kin.pIn);

@@ -130,7 +130,7 @@ describe("Breit–Wheeler γγ → e⁺e⁻ total (G. Breit and J. A. Wheeler, P
   });
 });
 
-describe("detailed balance between φ⁺φ⁻ → γγ and γγ → φ⁺φ⁻ (REFERENCES.md)", () => {
+describe("detailed balance between φ⁺φ⁻ → γγ and γγ → φ⁺φ⁻ (time-reversal invariance; standard textbook relation σ(ab→cd) g_a g_b p_ab² = σ(cd→ab) g_c g_d p_cd², memory)", () => {
   // σ(φφ→γγ)·g_φ²·p_φ² = ½·σ(γγ→φφ)·g_γ²·p_γ², g_φ = 1, g_γ = 2, the ½ for the identical photons
   // (our σ(φφ→γγ) already contains it, so the relation is checked with it on the photon side).
   it.each([0.3, 0.5, 1, 3])("√s = %s GeV", (sqrtS) => {

@@ -6,17 +6,14 @@ import type { ProcessDefinition } from "../process-definition";
  * lepton spins, electron mass m and scalar mass M kept:
  * $\overline{|\mathcal M|^2} = \frac{e^4}{2s^2}\left[s(s-4M^2) - (t-u)^2\right]$,
  * $t = (p_1-k_-)^2$, $u = (p_1-k_+)^2$. In the CM frame $t-u = 4p\,p'\cos\theta$ and the bracket is
- * $16p'^2(m^2 + p^2\sin^2\theta)$, the form evaluated here (no cancellation at high energy).
+ * $16p'^2(m^2 + p^2\sin^2\theta)$, the form evaluated here: the invariant form cancels
+ * s(s − 4M²) against (t − u)² near θ = 0 and 180° at high energy (measured on 100 random
+ * requests given in cos θ: 1.7·10⁻⁸ relative against a 50-digit evaluation, this form 7·10⁻¹³).
  * Dimensionless. Domain: s > max(4m², 4M²).
  * Source: derived here from the lepton trace contracted with $(k_+-k_-)_\mu(k_+-k_-)_\nu$
  * (docs/decisions/0003); its total at m → 0 is πα²β³/(3s) (Review of Particle Physics,
  * "Cross-section formulae for specific processes").
  */
-export function scalarPairProductionAmplitudeSquared(s: number, t: number, u: number, M: number, e2: number): number {
-  const d = t - u;
-  return (e2 * e2 * (s * (s - 4 * M * M) - d * d)) / (2 * s * s);
-}
-
 export const scalarPairProduction: ProcessDefinition = {
   info: {
     id: "scalar-pair-production",
@@ -39,7 +36,6 @@ export const scalarPairProduction: ProcessDefinition = {
     needsSqrtS: false,
   },
   reactionMasses: (mass, finalMass) => ({ axis: mass, partner: mass, reference: finalMass, recoil: finalMass }),
-  amplitudeSquared: (s, t, u, _mass, finalMass, e2) => scalarPairProductionAmplitudeSquared(s, t, u, finalMass, e2),
   fillCm(kin, e2, cosTheta, out) {
     const m = kin.masses.axis;
     const p2 = kin.pIn * kin.pIn;

@@ -1,0 +1,33 @@
+import { useMemo, useState } from "react";
+import type { DatasetInputs } from "~/figures/figure-inputs";
+import type { FigureModel } from "~/figures/figure-model";
+import { useFigurePreview } from "./use-figure-preview";
+
+/**
+ * A revision's points with their error bars, drawn by the figure renderer (the same code as a
+ * figure's preview and export), with a linear or log y axis.
+ */
+export function QuickLook({ model, inputs, title }: { model: FigureModel; inputs: DatasetInputs; title: string }) {
+  const [yScale, setYScale] = useState<"linear" | "log">(model.y.scale);
+  const shown = useMemo(() => ({ ...model, y: { ...model.y, scale: yScale, domain: null } }), [model, yScale]);
+  const metadata = useMemo(() => ({ title, description: "", notes: ["Quick look at a dataset revision; not a figure for publication."] }), [title]);
+  const preview = useFigurePreview(shown, inputs, metadata, 0);
+  return (
+    <section aria-labelledby="quick-look-h" className="mb-6">
+      <div className="flex items-baseline gap-4">
+        <h3 id="quick-look-h" className="flex-1 font-serif text-lg">Quick look</h3>
+        <fieldset className="flex gap-3 text-sm">
+          <legend className="sr-only">y axis</legend>
+          {(["log", "linear"] as const).map((s) => (
+            <label key={s}><input type="radio" name="quick-look-y" value={s} checked={yScale === s} onChange={() => setYScale(s)} /> {s} y</label>
+          ))}
+        </fieldset>
+      </div>
+      {preview.error ? <p className="text-sm text-madder">The points could not be drawn: {preview.error}</p> : null}
+      {preview.problems.length > 0 ? <ul className="text-sm text-madder">{preview.problems.map((p, i) => <li key={i}>{p.message}</li>)}</ul> : null}
+      {preview.svg === null ? <p className="text-sm text-ink-soft">Drawing the points…</p> : (
+        <div className="mt-2 max-w-3xl border border-rule bg-white p-2 [&>svg]:h-auto [&>svg]:w-full" data-testid="quick-look" dangerouslySetInnerHTML={{ __html: preview.svg }} />
+      )}
+    </section>
+  );
+}
