@@ -71,9 +71,6 @@ describe("sealing and sign-off", () => {
     await page.getByTestId("figure-preview").locator("svg").first().waitFor({ timeout: 30_000 });
     const started = await waitSaved(page);
     await expect(page.getByTestId("versions-panel").textContent()).resolves.toContain("No sealed version yet");
-    // The dataset's name as a legend entry has characters the figure font lacks; a figure with
-    // TeX that does not render is not sealed, so the contributor writes the entry first.
-    await page.getByLabel(/^Legend entry/).nth(1).fill("\\text{synthetic data, } T = 0.5\\ \\mathrm{GeV}");
     await sealCurrentDraft(page, 1, started);
     expect(await stateOnPage(page)).toBe("sealed");
 

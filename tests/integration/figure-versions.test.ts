@@ -6,6 +6,7 @@ import { createHash } from "node:crypto";
 import { sql } from "kysely";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { canonicalJson } from "../../app/engine/canonical-json";
+import { rerenderVersion } from "../../app/.server/versions/rerender-version.server";
 import { Client } from "../support/http";
 import { connect } from "../support/db";
 import { testEnv } from "../support/env";
@@ -117,6 +118,15 @@ describe("sealing", () => {
     expect(withoutMetadata(sealedSvg)).toBe(withoutMetadata(draftSvg));
     expect(sealedSvg.length).toBeGreaterThan(10_000);
 
+    // Drawn again from the snapshot alone (as an export does), the picture is the same bytes; a
+    // snapshot that differs in one number is not.
+    const again = await rerenderVersion(db, row);
+    expect(again).toMatchObject({ inputsMatch: true, matches: true, svgSha256: row.svg_sha256 });
+    expect(again.svg).toBe(row.svg);
+    const altered = structuredClone(row.snapshot) as { model: { fontSizePt: number } };
+    altered.model.fontSizePt += 0.5;
+    expect((await rerenderVersion(db, { ...row, snapshot: altered })).matches).toBe(false);
+
     const audit = await db.selectFrom("audit_event").select(["action", "detail", "actor_id"]).where("manuscript_id", "=", manuscriptId).where("action", "=", "version-sealed").where("detail", "@>", JSON.stringify({ figureId }) as never).execute();
     expect(audit).toEqual([{ action: "version-sealed", actor_id: people.contributor.id, detail: expect.objectContaining({ number: 1, fingerprint: row.fingerprint, draftRevision }) }]);
   });
@@ -150,6 +160,15 @@ describe("sealing", () => {
     expect(error.message).toMatch(/cannot be sealed/);
     expect((await seal("observer", figureId, rev)).status).toBe(403);
     expect((await seal("coauthor", figureId, rev)).status).toBe(403);
+    expect(await db.selectFrom("figure_version").select("id").where("figure_id", "=", figureId).execute()).toEqual([]);
+  });
+
+  it("refuses a draft whose TeX does not render, naming the field", async () => {
+    const figureId = await newFigure("bad tex");
+    const rev = await edit(figureId, (m) => { m.y.label = "\\frac{"; });
+    const res = await seal("contributor", figureId, rev);
+    expect(res.status).toBe(422);
+    expect(await errorOf(res)).toMatchObject({ code: "tex-error", field: "model.y.label" });
     expect(await db.selectFrom("figure_version").select("id").where("figure_id", "=", figureId).execute()).toEqual([]);
   });
 });

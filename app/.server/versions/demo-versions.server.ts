@@ -43,7 +43,7 @@ export async function seedDemoVersions(db: Db, manuscriptId: string, people: Dem
 
   let v1 = await findVersion(db, figureId, 1);
   if (!v1) {
-    // A legend entry in TeX the figure font can set, and alt text that says the data are synthetic.
+    // A short legend entry, and alt text that says the data are synthetic.
     const revision = await editDraft(db, figureId, people.contributor, (m) => {
       for (const layer of m.panels[0].layers) if (layer.kind === "dataset") layer.label = "\\text{synthetic data}";
       m.altText = "Synthetic demo data: photon angular distribution of e+e- annihilation in flight at T = 0.5 GeV against the QED Born prediction, with a data/prediction ratio strip.";
