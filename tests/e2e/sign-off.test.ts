@@ -71,7 +71,7 @@ describe("sealing and sign-off", () => {
     await page.getByTestId("figure-preview").locator("svg").first().waitFor({ timeout: 30_000 });
     const started = await waitSaved(page);
     await expect(page.getByTestId("versions-panel").textContent()).resolves.toContain("No sealed version yet");
-    await sealCurrentDraft(page, 1, started);
+    await sealCurrentDraft(page, 1, started - 1);
     expect(await stateOnPage(page)).toBe("sealed");
 
     // … and asks the co-author (the corresponding author could be asked too; the observer could not).
