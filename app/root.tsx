@@ -2,13 +2,18 @@ import { Links, Meta, Outlet, Scripts, ScrollRestoration, isRouteErrorResponse, 
 import type { Route } from "./+types/root";
 import "./app.css";
 import { optionalUser } from "./.server/platform/http/guards.server";
+import { db } from "./.server/platform/db.server";
+import { unreadCount } from "./.server/versions/notifications.server";
 import { SiteHeader } from "./components/site-header";
 import { ErrorPage } from "./components/error-page";
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await optionalUser(request);
-  return { user };
+  return { user, unread: user ? await unreadCount(db, user.id, new URL(request.url).pathname.replace(/\.data$/, "")) : 0 };
 }
+
+// The header's inbox count stays true on every navigation (one small query).
+export const shouldRevalidate = () => true;
 
 export function Layout({ children }: { children: React.ReactNode }) {
   const data = useRouteLoaderData<typeof loader>("root");
@@ -21,7 +26,7 @@ export function Layout({ children }: { children: React.ReactNode }) {
         <Links />
       </head>
       <body className="min-h-screen bg-paper text-ink antialiased">
-        <SiteHeader user={data?.user ?? null} />
+        <SiteHeader user={data?.user ?? null} unread={data?.unread ?? 0} />
         <main className="mx-auto max-w-6xl px-6 pb-16 pt-6">{children}</main>
         <ScrollRestoration />
         <Scripts />

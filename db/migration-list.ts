@@ -7,6 +7,7 @@ import * as m20261201_1500 from "./migrations/2026_12_01_1500_create_datasets";
 import * as m20261201_1600 from "./migrations/2026_12_01_1600_lock_manuscript_in_member_trigger";
 import * as m20261201_1700 from "./migrations/2026_12_01_1700_check_dataset_row_revision_per_statement";
 import * as m20261202_0900 from "./migrations/2026_12_02_0900_create_figures";
+import * as m20261203_0900 from "./migrations/2026_12_03_0900_create_figure_versions";
 
 export const MIGRATIONS: Record<string, Migration> = {
   "2026_12_01_1200_create_accounts_and_manuscripts": m20261201_1200,
@@ -14,4 +15,5 @@ export const MIGRATIONS: Record<string, Migration> = {
   "2026_12_01_1600_lock_manuscript_in_member_trigger": m20261201_1600,
   "2026_12_01_1700_check_dataset_row_revision_per_statement": m20261201_1700,
   "2026_12_02_0900_create_figures": m20261202_0900,
+  "2026_12_03_0900_create_figure_versions": m20261203_0900,
 };

@@ -73,9 +73,15 @@ if (isMain) {
     const { db: appDb } = await import("../app/.server/platform/db.server");
     const carla = await db.selectFrom("app_user").select("id").where("email", "=", "carla.corresponding@example.org").executeTakeFirstOrThrow();
     const datasets = await seedDemoDatasets(appDb, DEMO_MANUSCRIPT_ID, carla.id);
+    // The sealed demo figure goes through the app's own seal and review functions.
+    const { seedDemoVersions } = await import("../app/.server/versions/demo-versions.server");
+    const idOf = async (email: string) => (await db.selectFrom("app_user").select("id").where("email", "=", email).executeTakeFirstOrThrow()).id;
+    const versionSteps = await seedDemoVersions(appDb, DEMO_MANUSCRIPT_ID, {
+      contributor: await idOf("ada.contributor@example.org"), coauthor: await idOf("bruno.coauthor@example.org"), corresponding: carla.id,
+    });
     await appDb.destroy();
-    const total = created + datasets;
-    console.log(total ? `demo scenario: ${created} account/manuscript row(s) and ${datasets} synthetic dataset(s) created` : "demo scenario: already present, nothing changed");
+    const total = created + datasets + versionSteps;
+    console.log(total ? `demo scenario: ${created} account/manuscript row(s), ${datasets} synthetic dataset(s) and ${versionSteps} step(s) of the sealed demo figure created` : "demo scenario: already present, nothing changed");
   };
   run().finally(() => db.destroy());
 }

@@ -153,6 +153,64 @@ export interface FigureTable {
   updated_at: GeneratedTimestamp;
 }
 
+export type VersionEventKind = "requested" | "signed-off" | "returned" | "superseded" | "comment";
+export type NotificationKind = "requested" | "signed-off" | "returned" | "superseded";
+
+export interface FigureVersionTable {
+  id: Generated<string>;
+  figure_id: string;
+  manuscript_id: string;
+  number: number;
+  draft_revision: number;
+  snapshot: Json;
+  svg: string;
+  svg_sha256: string;
+  fingerprint: string;
+  sealed_by: string;
+  sealed_at: Timestamp;
+}
+
+export interface FigureVersionInputTable {
+  version_id: string;
+  revision_id: string;
+  dataset_id: string;
+  revision_number: number;
+  content_hash: string;
+}
+
+export interface ReviewRequestTable {
+  version_id: string;
+  reviewer_id: string;
+  requested_by: string;
+  requested_at: GeneratedTimestamp;
+}
+
+export interface VersionEventTable {
+  id: Generated<number>;
+  version_id: string;
+  kind: VersionEventKind;
+  actor_id: string;
+  reviewer_id: string | null;
+  superseded_by: string | null;
+  comment: string | null;
+  at: GeneratedTimestamp;
+}
+
+export interface NotificationTable {
+  id: Generated<string>;
+  user_id: string;
+  kind: NotificationKind;
+  manuscript_id: string;
+  figure_id: string;
+  version_id: string;
+  actor_id: string | null;
+  subject: string;
+  body: string;
+  link: string;
+  created_at: GeneratedTimestamp;
+  read_at: NullableTimestamp;
+}
+
 export interface Database {
   app_user: AppUserTable;
   manuscript: ManuscriptTable;
@@ -166,6 +224,11 @@ export interface Database {
   dataset_revision: DatasetRevisionTable;
   dataset_row: DatasetRowTable;
   figure: FigureTable;
+  figure_version: FigureVersionTable;
+  figure_version_input: FigureVersionInputTable;
+  review_request: ReviewRequestTable;
+  version_event: VersionEventTable;
+  notification: NotificationTable;
 }
 
 export type AppUser = Selectable<AppUserTable>;
@@ -180,3 +243,6 @@ export type Dataset = Selectable<DatasetTable>;
 export type DatasetRevision = Selectable<DatasetRevisionTable>;
 export type DatasetRow = Selectable<DatasetRowTable>;
 export type Figure = Selectable<FigureTable>;
+export type FigureVersion = Selectable<FigureVersionTable>;
+export type VersionEvent = Selectable<VersionEventTable>;
+export type Notification = Selectable<NotificationTable>;

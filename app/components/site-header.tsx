@@ -4,7 +4,7 @@ import type { SessionUser } from "~/session-user";
 const link = ({ isActive }: { isActive: boolean }) =>
   `px-1 pb-1 border-b-2 ${isActive ? "border-madder text-ink" : "border-transparent text-ink-soft hover:text-ink"}`;
 
-export function SiteHeader({ user }: { user: SessionUser | null }) {
+export function SiteHeader({ user, unread = 0 }: { user: SessionUser | null; unread?: number }) {
   return (
     <header className="border-b border-rule bg-sheet">
       <div className="mx-auto flex max-w-6xl items-center gap-8 px-6 py-3">
@@ -23,6 +23,9 @@ export function SiteHeader({ user }: { user: SessionUser | null }) {
               </>
             ) : null}
             <span className="flex-1" />
+            <NavLink to="/inbox" className={link} data-testid="inbox-link" aria-label={unread > 0 ? `Inbox, ${unread} unread` : "Inbox"}>
+              Inbox{unread > 0 ? <span className="ml-1.5 inline-block min-w-5 rounded-full bg-ink px-1.5 text-center font-mono text-xs text-sheet" data-testid="inbox-count">{unread}</span> : null}
+            </NavLink>
             <NavLink to="/account" className={link}>{user.name}</NavLink>
             <Form method="post" action="/sign-out">
               <button type="submit" className="text-ink-soft hover:text-ink">Sign out</button>

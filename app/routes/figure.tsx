@@ -8,12 +8,14 @@ import { loadDatasetInputs } from "~/.server/figures/figure-inputs.server";
 import { FigureTitleTaken, saveDraft } from "~/.server/figures/figure-repository.server";
 import { draftSaveSchema } from "~/.server/figures/figure-service.server";
 import { parseStoredDraft } from "~/.server/figures/render-draft.server";
+import { listVersionSummaries } from "~/.server/versions/version-repository.server";
 import { clientIp } from "~/.server/platform/http/client-address.server";
 import { Choice, NumberInput, Row, Section, TextInput, type PathErrors } from "~/components/figure-editor/fields";
 import { LayerEditor } from "~/components/figure-editor/layer-editor";
 import { TrueSizeView } from "~/components/figure-editor/true-size";
 import { useFigurePreview } from "~/components/figure-editor/use-figure-preview";
 import { ManuscriptNav } from "~/components/manuscript-nav";
+import { FigureVersionsPanel } from "~/components/versions/figure-versions-panel";
 import { Button } from "~/components/ui/button";
 import { Notice } from "~/components/ui/notice";
 import { PROCESSES } from "~/engine";
@@ -28,9 +30,10 @@ import { PT_PER_MM } from "~/figures/build-figure";
 export async function loader({ request, params }: Route.LoaderArgs) {
   const page = await loadFigurePage(request, params);
   const draft = parseStoredDraft(page.figure);
-  const [inputs, datasets] = await Promise.all([
+  const [inputs, datasets, versions] = await Promise.all([
     draft.ok ? loadDatasetInputs(db, page.figure.manuscript_id, draft.model) : Promise.resolve({}),
     listDatasets(db, page.figure.manuscript_id),
+    listVersionSummaries(db, page.figure.id),
   ]);
   const { figure } = page;
   return {
@@ -40,6 +43,10 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     draftIssues: draft.ok ? [] : draft.issues,
     inputs,
     datasets: datasets.filter((d) => d.latestRevision != null).map((d) => ({ id: d.id, name: d.name, latestRevision: Number(d.latestRevision) })),
+    versions: versions.map((v) => ({
+      number: v.number, state: v.state, fingerprint: v.fingerprint, draftRevision: v.draft_revision, sealedAt: v.sealed_at, sealedByName: v.sealedByName,
+      next: { text: v.next.text, names: v.next.names }, supersededByNumber: v.supersededByNumber,
+    })),
   };
 }
 
@@ -71,7 +78,7 @@ const freshId = (model: FigureModel, prefix: string) => {
 
 export default function FigurePage() {
   const loaded = useLoaderData<typeof loader>();
-  const { manuscript, role, can, figure, inputs, datasets } = loaded;
+  const { manuscript, role, can, figure, inputs, datasets, versions } = loaded;
   const editable = can["edit:figure"];
   const fetcher = useFetcher<typeof action>();
   const revalidator = useRevalidator();
@@ -110,10 +117,15 @@ export default function FigurePage() {
   }
 
   // Saves a short pause after the last edit, one save at a time, each based on the revision the previous one made.
+  // `queued` covers the moment between handing the save to the fetcher and the fetcher reporting it
+  // busy, so that the page never says "saved" (nor offers to seal) while a save is on its way.
+  const [queued, setQueued] = useState(false);
+  useEffect(() => { if (fetcher.state !== "idle") setQueued(false); }, [fetcher.state]);
   useEffect(() => {
     if (!dirty || conflict !== null || fetcher.state !== "idle" || valid === null) return;
     const timer = setTimeout(() => {
       setDirty(false);
+      setQueued(true);
       fetcher.submit({ baseRevision: base, model: valid, title: title.trim() === "" ? figure.title : title }, { method: "post", encType: "application/json" });
     }, 350);
     return () => clearTimeout(timer);
@@ -137,7 +149,7 @@ export default function FigurePage() {
   }
 
   const preset = findPreset(draft.preset) ?? findPreset(DEFAULT_PRESET_ID)!;
-  const saving = fetcher.state !== "idle" ? "saving…" : dirty ? "edited" : conflict ? "not saved" : `saved · revision ${base}`;
+  const saving = fetcher.state !== "idle" || queued ? "saving…" : dirty ? "edited" : conflict ? "not saved" : `saved · revision ${base}`;
   const figureProblems = preview.problems.filter((p) => p.layerId === null);
   const generated = preview.xDomain && preview.yDomain && shown ? describeFigure(shown, { x: preview.xDomain, y: preview.yDomain }) : "";
 
@@ -171,6 +183,8 @@ export default function FigurePage() {
       ) : null}
       {saveError && !conflict ? <div className="mb-4"><Notice tone="caution">{saveError.message}</Notice></div> : null}
       {!editable ? <div className="mb-4"><Notice>You can read this figure; editing needs the role of corresponding author or contributor.</Notice></div> : null}
+      <FigureVersionsPanel base={`/manuscripts/${manuscript.id}/figures/${figure.id}`} versions={versions} draftRevision={base} canSeal={can["seal:figure"]}
+        busy={dirty || queued || fetcher.state !== "idle" || conflict !== null || valid === null} />
       <div className="grid grid-cols-[26rem_1fr] gap-8 max-xl:grid-cols-1">
         <form className="flex flex-col" onSubmit={(e) => e.preventDefault()} aria-label="Figure settings">
           <fieldset disabled={!editable} className="contents">

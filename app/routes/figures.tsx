@@ -7,16 +7,20 @@ import { FigureTitleTaken, listFigures } from "~/.server/figures/figure-reposito
 import { FigureStartError, startFigure } from "~/.server/figures/figure-service.server";
 import { requirePermission, requireUser } from "~/.server/platform/http/guards.server";
 import { loadManuscriptPage } from "~/.server/manuscripts/manuscript-context.server";
+import { latestVersionStates } from "~/.server/versions/version-repository.server";
 import { clientIp } from "~/.server/platform/http/client-address.server";
 import { parseForm } from "~/.server/platform/http/forms.server";
 import { ManuscriptNav } from "~/components/manuscript-nav";
 import { Button } from "~/components/ui/button";
 import { Field, SelectField } from "~/components/ui/field";
 import { DemoBadge, Notice } from "~/components/ui/notice";
+import { LatestVersionCell } from "~/components/versions/version-state-tag";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const page = await loadManuscriptPage(request, params.manuscriptId);
-  const [figures, datasets] = await Promise.all([listFigures(db, params.manuscriptId), listDatasets(db, params.manuscriptId)]);
+  const [rows, datasets] = await Promise.all([listFigures(db, params.manuscriptId), listDatasets(db, params.manuscriptId)]);
+  const latest = await latestVersionStates(db, rows.map((f) => f.id));
+  const figures = rows.map((f) => ({ ...f, latest: latest.get(f.id) ?? null }));
   return { ...page, figures, datasets: datasets.filter((d) => d.latestRevision != null).map((d) => ({ id: d.id, name: d.name, latestRevision: Number(d.latestRevision) })) };
 }
 
@@ -59,14 +63,15 @@ export default function Figures() {
           {figures.length === 0 ? <p className="mt-6 text-ink-soft">No figures yet.</p> : (
             <table className="mt-4 w-full text-sm">
               <thead className="border-b border-rule text-left text-ink-soft">
-                <tr><th className="py-2 font-medium">Title</th><th className="font-medium">Panels</th><th className="font-medium">State</th><th className="font-medium">Last edit</th></tr>
+                <tr><th className="py-2 font-medium">Title</th><th className="font-medium">Panels</th><th className="font-medium">Latest version</th><th className="font-medium">Draft</th><th className="font-medium">Last edit</th></tr>
               </thead>
               <tbody className="divide-y divide-rule">
                 {figures.map((f) => (
                   <tr key={f.id}>
                     <td className="py-2.5"><Link className="font-serif text-base hover:text-madder" to={f.id}>{f.title}</Link> {f.is_demo ? <DemoBadge /> : null}</td>
                     <td className="font-mono">{f.panelCount}</td>
-                    <td>draft <span className="font-mono text-ink-faint">rev {f.draft_revision}</span></td>
+                    <td data-testid={`figure-state-${f.id}`}><LatestVersionCell latest={f.latest} /></td>
+                    <td><span className="font-mono text-ink-faint">rev {f.draft_revision}</span></td>
                     <td className="text-ink-soft">{when(f.updated_at)} · {f.updatedByName}</td>
                   </tr>
                 ))}

@@ -4,19 +4,22 @@ import { db } from "~/.server/platform/db.server";
 import { loadManuscriptPage } from "~/.server/manuscripts/manuscript-context.server";
 import { listFigures } from "~/.server/figures/figure-repository.server";
 import { listMembers } from "~/.server/manuscripts/manuscripts.server";
+import { latestVersionStates } from "~/.server/versions/version-repository.server";
 import { ManuscriptNav } from "~/components/manuscript-nav";
 import { RoleTag } from "~/components/role-tag";
 import { Notice } from "~/components/ui/notice";
+import { LatestVersionCell } from "~/components/versions/version-state-tag";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const page = await loadManuscriptPage(request, params.manuscriptId);
   const [members, figures] = await Promise.all([listMembers(db, params.manuscriptId), listFigures(db, params.manuscriptId)]);
-  return { ...page, members, figures };
+  const latest = await latestVersionStates(db, figures.map((f) => f.id));
+  return { ...page, members, figures: figures.map((f) => ({ ...f, latest: latest.get(f.id) ?? null })) };
 }
 
 const STEPS = ["Data", "Predictions", "Composition", "Seal", "Sign-off", "Export"] as const;
-// Sealing, sign-off and export are not built yet; the page says so.
-const AVAILABLE = new Set<string>(["Data", "Predictions", "Composition"]);
+// Export is not built yet; the page says so.
+const AVAILABLE = new Set<string>(["Data", "Predictions", "Composition", "Seal", "Sign-off"]);
 
 export default function ManuscriptOverview() {
   const { manuscript, role, can, members, figures } = useLoaderData<typeof loader>();
@@ -36,7 +39,7 @@ export default function ManuscriptOverview() {
               </li>
             ))}
           </ol>
-          <p className="mt-2 text-xs text-ink-faint">Steps 4–6 (sealed versions, sign-off and export) are not available in this release yet.</p>
+          <p className="mt-2 text-xs text-ink-faint">Step 6 (export) is not available in this release yet.</p>
           <p className="mt-4 text-sm text-ink-soft">
             Start with the measured data: <Link className="underline underline-offset-4" to={`/manuscripts/${manuscript.id}/datasets`}>datasets of this manuscript</Link>.
             {" "}Theory curves come from the <Link className="underline underline-offset-4" to="/predictions">predictions</Link> engine.
@@ -46,13 +49,14 @@ export default function ManuscriptOverview() {
             <p className="mt-2 text-sm text-ink-soft">No figures yet. <Link className="underline underline-offset-4" to={`/manuscripts/${manuscript.id}/figures`}>{can["edit:figure"] ? "Start one" : "Figures"}</Link></p>
           ) : (
             <table className="mt-3 w-full text-sm" aria-labelledby="figures-title">
-              <thead className="border-b border-rule text-left text-ink-soft"><tr><th className="py-1.5 font-medium">Title</th><th className="font-medium">Panels</th><th className="font-medium">State</th><th className="font-medium">Last edit</th></tr></thead>
+              <thead className="border-b border-rule text-left text-ink-soft"><tr><th className="py-1.5 font-medium">Title</th><th className="font-medium">Panels</th><th className="font-medium">Latest version</th><th className="font-medium">Draft</th><th className="font-medium">Last edit</th></tr></thead>
               <tbody className="divide-y divide-rule">
                 {figures.map((f) => (
                   <tr key={f.id}>
                     <td className="py-2"><Link className="font-serif hover:text-madder" to={`/manuscripts/${manuscript.id}/figures/${f.id}`}>{f.title}</Link></td>
                     <td className="font-mono">{f.panelCount}</td>
-                    <td>draft <span className="font-mono text-ink-faint">rev {f.draft_revision}</span></td>
+                    <td data-testid={`figure-state-${f.id}`}><LatestVersionCell latest={f.latest} /></td>
+                    <td><span className="font-mono text-ink-faint">rev {f.draft_revision}</span></td>
                     <td className="text-ink-soft">{new Date(f.updated_at).toISOString().slice(0, 16).replace("T", " ")} UTC · {f.updatedByName}</td>
                   </tr>
                 ))}

@@ -20,6 +20,7 @@ let otherManuscriptId = "";
 let otherDatasetId = "";
 let targetMemberId = "";
 let figureId = "";
+let versionFigureId = "";
 let unique = 0;
 const fresh = () => ++unique;
 const AUTHORS: Who[] = ["contributor", "corresponding"];
@@ -54,7 +55,31 @@ beforeAll(async () => {
   const f = await clients.corresponding.postJson(`/api/v1/manuscripts/${manuscriptId}/figures`, { title: "matrix figure", from: { datasetId } });
   expect(f.status).toBe(201);
   figureId = ((await f.json()) as { figure: { id: string } }).figure.id;
+  const vf = await clients.corresponding.postJson(`/api/v1/manuscripts/${manuscriptId}/figures`, { title: "matrix versions" });
+  expect(vf.status).toBe(201);
+  versionFigureId = ((await vf.json()) as { figure: { id: string } }).figure.id;
+  await freshVersion([]);
 });
+
+/** A draft revision nobody has sealed yet: the draft of the versions figure, moved on by one. */
+async function freshDraftRevision(): Promise<number> {
+  const row = await db.updateTable("figure").set((eb) => ({ draft_revision: eb("draft_revision", "+", 1) })).where("id", "=", versionFigureId).returning("draft_revision").executeTakeFirstOrThrow();
+  return row.draft_revision;
+}
+
+/** A new version of the versions figure, sealed by the contributor, with sign-off asked of `reviewers`. */
+async function freshVersion(reviewers: ("coauthor" | "corresponding")[]): Promise<number> {
+  const sealed = await clients.contributor.postJson(`/api/v1/figures/${versionFigureId}/versions`, { draftRevision: await freshDraftRevision() });
+  expect(sealed.status).toBe(201);
+  const n = ((await sealed.json()) as { version: { number: number } }).version.number;
+  if (reviewers.length > 0) {
+    const ids = await db.selectFrom("membership").select("user_id").where("manuscript_id", "=", manuscriptId).where("role", "in", reviewers).execute();
+    const asked = await clients.contributor.postJson(`/api/v1/figures/${versionFigureId}/versions/${n}/review-requests`, { reviewerIds: ids.map((r) => r.user_id) });
+    expect(asked.status).toBe(201);
+  }
+  return n;
+}
+const coauthorId = async () => (await db.selectFrom("membership").select("user_id").where("manuscript_id", "=", manuscriptId).where("role", "=", "coauthor").executeTakeFirstOrThrow()).user_id;
 
 /** The stored draft and its revision, so that an allowed save is never stale. */
 async function currentDraft() {
@@ -200,9 +225,58 @@ const cases: Case[] = [
   },
   { name: "GET /api/v1/figures/:f/draft.svg", allowed: MEMBERS, call: (c) => c.get(`/api/v1/figures/${figureId}/draft.svg`), denied: apiDenied, anonymous: 401 },
   { name: "GET /api/v1/…/revisions/1/raw", allowed: READERS_OF_RAW, call: (c) => c.get(`/api/v1/manuscripts/${manuscriptId}/datasets/${datasetId}/revisions/1/raw`), denied: apiDenied, anonymous: 401 },
+  // Sealed versions and sign-off (issue 9): every member reads; authors seal and ask; co-authors
+  // and corresponding authors who were asked sign off or return (a contributor never does, so
+  // nobody signs off their own contributor's seal by role); observers only read.
+  { name: "GET /inbox", allowed: SIGNED_IN, call: (c) => c.get("/inbox"), denied: () => 0, anonymous: 302 },
+  { name: "GET /manuscripts/:id/figures/:f/versions/1", allowed: MEMBERS, call: (c) => c.get(`/manuscripts/${manuscriptId}/figures/${versionFigureId}/versions/1`), denied: pageDenied, anonymous: 302 },
+  { name: "GET /manuscripts/:id/figures/:f/compare", allowed: MEMBERS, call: (c) => c.get(`/manuscripts/${manuscriptId}/figures/${versionFigureId}/compare?from=1&to=1`), denied: pageDenied, anonymous: 302 },
+  {
+    name: "POST /manuscripts/:id/figures/:f/versions (seal)", allowed: AUTHORS, okStatus: 302,
+    call: async (c) => c.post(`/manuscripts/${manuscriptId}/figures/${versionFigureId}/versions`, { draftRevision: String(await freshDraftRevision()) }), denied: pageDenied, anonymous: 302,
+  },
+  {
+    name: "POST /manuscripts/:id/figures/:f/versions/:n (request sign-off)", allowed: AUTHORS,
+    call: async (c) => c.post(`/manuscripts/${manuscriptId}/figures/${versionFigureId}/versions/${await freshVersion([])}`, { intent: "request", reviewer: await coauthorId() }), denied: pageDenied, anonymous: 302,
+  },
+  {
+    name: "POST /manuscripts/:id/figures/:f/versions/:n (sign off, when asked)", allowed: ["coauthor", "corresponding"],
+    call: async (c) => c.post(`/manuscripts/${manuscriptId}/figures/${versionFigureId}/versions/${await freshVersion(["coauthor", "corresponding"])}`, { intent: "sign-off", comment: "" }), denied: pageDenied, anonymous: 302,
+  },
+  {
+    name: "POST /manuscripts/:id/figures/:f/versions/:n (comment)", allowed: READERS_OF_RAW,
+    call: (c) => c.post(`/manuscripts/${manuscriptId}/figures/${versionFigureId}/versions/1`, { intent: "comment", comment: `note ${fresh()}` }), denied: pageDenied, anonymous: 302,
+  },
+  { name: "GET /api/v1/figures/:f/versions", allowed: MEMBERS, call: (c) => c.get(`/api/v1/figures/${versionFigureId}/versions`), denied: apiDenied, anonymous: 401 },
+  {
+    name: "POST /api/v1/figures/:f/versions (seal)", allowed: AUTHORS, okStatus: 201,
+    call: async (c) => c.postJson(`/api/v1/figures/${versionFigureId}/versions`, { draftRevision: await freshDraftRevision() }), denied: apiDenied, anonymous: 401,
+  },
+  { name: "GET /api/v1/figures/:f/versions/1", allowed: MEMBERS, call: (c) => c.get(`/api/v1/figures/${versionFigureId}/versions/1`), denied: apiDenied, anonymous: 401 },
+  { name: "GET /api/v1/figures/:f/versions/1/figure.svg", allowed: MEMBERS, call: (c) => c.get(`/api/v1/figures/${versionFigureId}/versions/1/figure.svg`), denied: apiDenied, anonymous: 401 },
+  {
+    name: "POST /api/v1/figures/:f/versions/:n/review-requests", allowed: AUTHORS, okStatus: 201,
+    call: async (c) => c.postJson(`/api/v1/figures/${versionFigureId}/versions/${await freshVersion([])}/review-requests`, { reviewerIds: [await coauthorId()] }), denied: apiDenied, anonymous: 401,
+  },
+  {
+    name: "POST /api/v1/figures/:f/versions/:n/sign-off (when asked)", allowed: ["coauthor", "corresponding"],
+    call: async (c) => c.postJson(`/api/v1/figures/${versionFigureId}/versions/${await freshVersion(["coauthor", "corresponding"])}/sign-off`, {}), denied: apiDenied, anonymous: 401,
+  },
+  {
+    name: "POST /api/v1/figures/:f/versions/:n/return (when asked)", allowed: ["coauthor", "corresponding"],
+    call: async (c) => c.postJson(`/api/v1/figures/${versionFigureId}/versions/${await freshVersion(["coauthor", "corresponding"])}/return`, { comment: "Not yet." }), denied: apiDenied, anonymous: 401,
+  },
+  {
+    name: "POST /api/v1/figures/:f/versions/:n/comments", allowed: READERS_OF_RAW, okStatus: 201,
+    call: (c) => c.postJson(`/api/v1/figures/${versionFigureId}/versions/1/comments`, { comment: `note ${fresh()}` }), denied: apiDenied, anonymous: 401,
+  },
+  {
+    name: "GET a version the figure does not have (the matrix figure is never sealed)", allowed: [],
+    call: (c) => c.get(`/api/v1/figures/${figureId}/versions/1`), denied: () => 404, anonymous: 401,
+  },
 ];
 
-describe("authorisation matrix (foundation, dataset and figure routes)", () => {
+describe("authorisation matrix (foundation, dataset, figure and version routes)", () => {
   for (const k of cases) {
     it(`${k.name}: allowed exactly for ${k.allowed.join(", ")}`, async () => {
       const got: Record<string, number> = {};
@@ -245,6 +319,24 @@ describe("authorisation matrix (foundation, dataset and figure routes)", () => {
       expect(typeof body.error.code).toBe("string");
       expect(body.error.message.length).toBeGreaterThan(10);
     }
+  });
+
+  it("nobody signs off their own seal: a corresponding author who sealed cannot be asked, and is not a reviewer of it", async () => {
+    const sealed = await clients.corresponding.postJson(`/api/v1/figures/${versionFigureId}/versions`, { draftRevision: await freshDraftRevision() });
+    expect(sealed.status).toBe(201);
+    const n = ((await sealed.json()) as { version: { number: number } }).version.number;
+    const correspondingId = (await db.selectFrom("membership").select("user_id").where("manuscript_id", "=", manuscriptId).where("role", "=", "corresponding").executeTakeFirstOrThrow()).user_id;
+    const asked = await clients.contributor.postJson(`/api/v1/figures/${versionFigureId}/versions/${n}/review-requests`, { reviewerIds: [correspondingId] });
+    expect(asked.status).toBe(422);
+    expect(((await asked.json()) as { error: { code: string } }).error.code).toBe("sealer-review");
+    const own = await clients.corresponding.postJson(`/api/v1/figures/${versionFigureId}/versions/${n}/sign-off`, {});
+    expect(own.status).toBe(403);
+    expect(((await own.json()) as { error: { code: string } }).error.code).toBe("not-requested");
+    // A contributor's own version: the contributor's role has no sign-off at all.
+    const mine = await freshVersion(["coauthor"]);
+    const contributorSignOff = await clients.contributor.postJson(`/api/v1/figures/${versionFigureId}/versions/${mine}/sign-off`, {});
+    expect(contributorSignOff.status).toBe(403);
+    expect(((await contributorSignOff.json()) as { error: { message: string } }).error.message).toBe("This needs the role of co-author or corresponding author; your role here is contributor.");
   });
 
   it("a 403 page names the role that is needed", async () => {

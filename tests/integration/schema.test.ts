@@ -36,7 +36,7 @@ describe("migrations from an empty database", () => {
   it("create every table, and go down and up again", async () => {
     const tables = await sql<{ tablename: string }>`SELECT tablename FROM pg_tables WHERE schemaname = 'public' ORDER BY tablename`.execute(db);
     const names = tables.rows.map((r) => r.tablename);
-    for (const t of ["api_token", "app_user", "audit_event", "dataset", "dataset_revision", "dataset_row", "invitation", "manuscript", "membership", "one_time_token", "sign_in_attempt"]) expect(names).toContain(t);
+    for (const t of ["api_token", "app_user", "audit_event", "dataset", "dataset_revision", "dataset_row", "invitation", "manuscript", "membership", "one_time_token", "sign_in_attempt", "figure", "figure_version", "figure_version_input", "review_request", "version_event", "notification"]) expect(names).toContain(t);
     process.env.MIGRATE_QUIET = "1";
     await migrateToLatest(url, "reset");
     const after = await sql<{ n: number }>`SELECT count(*)::int AS n FROM pg_tables WHERE schemaname = 'public' AND tablename NOT LIKE 'kysely%'`.execute(db);

@@ -24,7 +24,13 @@ export type AuditAction =
   | "revision-identical"
   | "raw-file-downloaded"
   | "figure-created"
-  | "figure-draft-saved";
+  | "figure-draft-saved"
+  | "version-sealed"
+  | "version-superseded"
+  | "signoff-requested"
+  | "version-signed-off"
+  | "version-returned"
+  | "version-commented";
 
 export interface AuditEntry {
   action: AuditAction;

@@ -7,13 +7,18 @@ import { findFigure } from "~/.server/figures/figure-repository.server";
 import { requireApiUser, requirePermission } from "~/.server/platform/http/guards.server";
 import { apiError } from "~/.server/platform/http/api-error.server";
 import { clientIp } from "~/.server/platform/http/client-address.server";
+import { latestVersionStates } from "~/.server/versions/version-repository.server";
 
 export const loader = apiHandler(async ({ request, params }: Route.LoaderArgs) => {
   const user = await requireApiUser(request);
   await requirePermission("api", user, params.manuscriptId, "read:manuscript");
   const rows = await listFigures(db, params.manuscriptId);
+  const latest = await latestVersionStates(db, rows.map((f) => f.id));
   return Response.json({
-    figures: rows.map((f) => ({ id: f.id, title: f.title, draftRevision: f.draft_revision, panels: f.panelCount, updatedAt: f.updated_at, updatedBy: f.updatedByName, createdAt: f.created_at })),
+    figures: rows.map((f) => ({
+      id: f.id, title: f.title, draftRevision: f.draft_revision, panels: f.panelCount, updatedAt: f.updated_at, updatedBy: f.updatedByName, createdAt: f.created_at,
+      latestVersion: latest.get(f.id) ?? null,
+    })),
   });
 });
 
