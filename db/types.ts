@@ -211,6 +211,26 @@ export interface NotificationTable {
   read_at: NullableTimestamp;
 }
 
+export type ExportState = "queued" | "rendering" | "done" | "failed";
+
+export interface FigureExportTable {
+  id: Generated<string>;
+  version_id: string;
+  manuscript_id: string;
+  requested_by: string;
+  requested_at: GeneratedTimestamp;
+  state: Generated<ExportState>;
+  reason: string | null;
+  override_reason: string | null;
+  preflight: NullableJson;
+  files: NullableJson;
+  bundle_key: string | null;
+  bundle_sha256: string | null;
+  attempts: Generated<number>;
+  started_at: NullableTimestamp;
+  finished_at: NullableTimestamp;
+}
+
 export interface Database {
   app_user: AppUserTable;
   manuscript: ManuscriptTable;
@@ -229,6 +249,7 @@ export interface Database {
   review_request: ReviewRequestTable;
   version_event: VersionEventTable;
   notification: NotificationTable;
+  figure_export: FigureExportTable;
 }
 
 export type AppUser = Selectable<AppUserTable>;
@@ -246,3 +267,4 @@ export type Figure = Selectable<FigureTable>;
 export type FigureVersion = Selectable<FigureVersionTable>;
 export type VersionEvent = Selectable<VersionEventTable>;
 export type Notification = Selectable<NotificationTable>;
+export type FigureExport = Selectable<FigureExportTable>;

@@ -29,6 +29,15 @@ const server = app.listen(port, host, () => {
 // large upload sent on such a connection fails with "other side closed"); common practice.
 server.keepAliveTimeout = 65_000;
 server.headersTimeout = 66_000;
-const stop = () => server.close(() => process.exit(0));
+// One export worker inside the app process (docs/decisions/0011-export-jobs.md); EXPORT_WORKERS=0
+// leaves exports to workers started with `npm run worker`. The worker is TypeScript, loaded by tsx.
+let stopWorkers = async () => {};
+const workerCount = Number(process.env.EXPORT_WORKERS ?? 1);
+if (workerCount > 0) {
+  const { tsImport } = await import("tsx/esm/api");
+  const { runWorkers } = await tsImport("./worker.ts", import.meta.url);
+  stopWorkers = await runWorkers(workerCount);
+}
+const stop = () => server.close(() => void stopWorkers().finally(() => process.exit(0)));
 process.on("SIGTERM", stop);
 process.on("SIGINT", stop);

@@ -11,6 +11,10 @@ import { parseVersionNumber, versionPageError } from "~/.server/versions/version
 import { VersionError } from "~/.server/versions/version-error.server";
 import { loadVersionPage } from "~/.server/versions/version-page.server";
 import { findVersion } from "~/.server/versions/version-repository.server";
+import { loadExportPanel } from "~/.server/exports/export-panel.server";
+import { requestExport } from "~/.server/exports/export-jobs.server";
+import { exportQueue } from "~/.server/exports/export-queue.server";
+import { ExportPanelView } from "~/components/versions/export-panel";
 import { Fingerprint } from "~/components/fingerprint";
 import { ManuscriptNav } from "~/components/manuscript-nav";
 import { RoleTag } from "~/components/role-tag";
@@ -21,7 +25,8 @@ import { notFound } from "~/.server/platform/http/guards.server";
 import type { ManuscriptAction } from "~/permissions";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
-  return loadVersionPage(request, params);
+  const page = await loadVersionPage(request, params);
+  return { ...page, exporting: await loadExportPanel(page) };
 }
 
 const VersionForm = z.discriminatedUnion("intent", [
@@ -29,8 +34,9 @@ const VersionForm = z.discriminatedUnion("intent", [
   z.object({ intent: z.literal("sign-off"), comment: z.string().max(5000, "A comment is at most 5000 characters.").default("") }),
   z.object({ intent: z.literal("return"), comment: z.string().max(5000, "A comment is at most 5000 characters.").default("") }),
   z.object({ intent: z.literal("comment"), comment: z.string().max(5000, "A comment is at most 5000 characters.") }),
+  z.object({ intent: z.literal("export"), overrideReason: z.string().trim().max(2000, "A reason is at most 2000 characters.").default("") }),
 ]);
-const NEEDS: Record<z.infer<typeof VersionForm>["intent"], ManuscriptAction> = { request: "request:signoff", "sign-off": "signoff:version", return: "signoff:version", comment: "comment:version" };
+const NEEDS: Record<z.infer<typeof VersionForm>["intent"], ManuscriptAction> = { request: "request:signoff", "sign-off": "signoff:version", return: "signoff:version", comment: "comment:version", export: "export:version" };
 
 /** Request sign-off, sign off, return, comment: the same services as the API's. */
 export async function action({ request, params, context }: Route.ActionArgs) {
@@ -47,6 +53,10 @@ export async function action({ request, params, context }: Route.ActionArgs) {
       const reviewerIds = parsed.form.getAll("reviewer").map(String);
       await requestSignoff(db, { version, requesterId: user.id, reviewerIds, ip });
       return { ok: true as const, message: `Sign-off of v${version.number} requested; the reviewers have been told by e-mail and in their inbox.` };
+    }
+    if (form.intent === "export") {
+      await requestExport(db, await exportQueue(), { version, userId: user.id, overrideReason: form.overrideReason || null, ip });
+      return { ok: true as const, message: `Export of v${version.number} requested${form.overrideReason ? ", overriding the preflight with your reason" : ""}; its files appear below when they are ready.` };
     }
     if (form.intent === "comment") {
       await commentOnVersion(db, { version, userId: user.id, text: form.comment, ip });
@@ -105,6 +115,7 @@ export default function VersionPage() {
             {v.number > 1 ? <Link className="underline underline-offset-4" to={`${base}/compare?from=${v.number - 1}&to=${v.number}`} data-testid="compare-previous">Compare with v{v.number - 1}</Link> : null}
             <span className="font-mono text-ink-faint">SVG SHA-256 {v.svgSha256.slice(0, 12)}…</span>
           </p>
+          <ExportPanelView panel={d.exporting} versionNumber={v.number} busy={busy} />
           <SnapshotSummary snapshot={d.snapshot} />
         </section>
 

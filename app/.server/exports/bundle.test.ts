@@ -14,9 +14,12 @@ import { buildBundle, type BundleFile } from "./bundle.server";
 import { svgToPdf } from "./svg-to-pdf.server";
 import { svgToPng } from "./svg-to-png.server";
 import { verifyBundle } from "./verify-bundle.server";
+import { verifyBundleAndFigure } from "./verify-bundle-figure.server";
+import { figureJson } from "./version-export.server";
+import { sealedMetadata, sha256Hex as textSha256, type VersionSnapshot } from "~/figures/version-snapshot";
 
 const SEALED_AT = "2026-12-03T10:11:12Z";
-const EXTRA = {
+const EXTRA: Record<string, unknown> = {
   fingerprint: "3f2a9c0b7d1e",
   sealedAt: SEALED_AT,
   sealer: { name: "A. Author" },
@@ -32,18 +35,21 @@ let zip: Uint8Array;
 beforeAll(async () => {
   dir = mkdtempSync(path.join(tmpdir(), "steradian-bundle-"));
   const model = referenceModel();
-  const figure = await renderFigure(model, referenceInputs(), { title: "Reference figure", description: "", notes: [] });
+  // A snapshot as sealing writes one, so that verification can draw the figure again from figure.json.
+  const snapshot: VersionSnapshot = { format: 1, figure: { id: "6f1c2a9e-0d4b-4c3a-9b7e-2a1f3c4d5e61", title: "Reference figure", draftRevision: 3 }, number: 1, model, engineVersion: "0.1.0", datasets: [], predictions: [], problems: [] };
+  const figure = await renderFigure(model, referenceInputs(), sealedMetadata(snapshot));
+  EXTRA.svgSha256 = textSha256(figure.svg);
   const size = { widthPt: figure.built.widthPt, heightPt: figure.built.heightPt };
   const pdf = await svgToPdf(figure.svg, { ...size, title: "Reference figure", author: "A. Author", subject: EXTRA.fingerprint, keywords: "", creationDate: new Date(SEALED_AT), documentId: "v1" });
   files = [
     { name: "figure.pdf", bytes: pdf, description: "the figure, vector PDF at final size" },
     { name: "figure.svg", bytes: strToU8(figure.svg), description: "the figure, SVG" },
     { name: "figure.png", bytes: svgToPng(figure.svg, { ...size, dpi: 150 }), description: "the figure, PNG" },
-    { name: "figure.json", bytes: strToU8(JSON.stringify(model)), description: "the figure model" },
+    { name: "figure.json", bytes: strToU8(figureJson(snapshot, textSha256(figure.svg), { ...referenceInputs() })), description: "the figure model" },
     { name: "alt-text.txt", bytes: strToU8("A falling cross section.\n"), description: "the figure's alt text" },
     ...figureCsvFiles(model, figure.data).map((f) => ({ name: f.name, bytes: strToU8(f.text), description: f.description })),
   ];
-  zip = buildBundle(files, EXTRA, { title: "Reference figure, version 1", modifiedAt: new Date(SEALED_AT) });
+  zip = buildBundle(files, EXTRA as Parameters<typeof buildBundle>[1], { title: "Reference figure, version 1", modifiedAt: new Date(SEALED_AT) });
 }, 60_000);
 
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
@@ -161,6 +167,36 @@ describe("verifyBundle", () => {
   });
 });
 
+/** One measured value changed in figure.json, and the manifest's hash of figure.json updated to match. */
+function forgedData(): Uint8Array {
+  return repacked((e) => {
+    const doc = JSON.parse(new TextDecoder().decode(e["figure.json"]));
+    doc.datasetInputs[0].rows[3].y *= 1.5;
+    e["figure.json"] = strToU8(JSON.stringify(doc));
+    const m = JSON.parse(new TextDecoder().decode(e["manifest.json"]));
+    const entry = m.files.find((f: { name: string }) => f.name === "figure.json");
+    entry.sha256 = createHash("sha256").update(e["figure.json"]).digest("hex");
+    entry.bytes = e["figure.json"].length;
+    e["manifest.json"] = strToU8(JSON.stringify(m));
+  });
+}
+
+describe("verifyBundleAndFigure", () => {
+  it("draws the intact bundle's figure again and finds the signed-off SVG", async () => {
+    const result = await verifyBundleAndFigure(zip);
+    expect(result.figure).toEqual(expect.objectContaining({ ok: true, redrawnSha256: EXTRA.svgSha256 }));
+    expect(result.ok).toBe(true);
+  }, 60_000);
+
+  it("catches changed data whose hash was also changed in the manifest", async () => {
+    const result = await verifyBundleAndFigure(forgedData());
+    expect(result.files.every((f) => f.status === "ok")).toBe(true);
+    expect(result.figure.ok).toBe(false);
+    expect(result.figure.redrawnSha256).not.toBe(EXTRA.svgSha256);
+    expect(result.ok).toBe(false);
+  }, 60_000);
+});
+
 describe("npm run verify-bundle", () => {
   const cli = (file: string) => spawnSync("node_modules/.bin/tsx", ["scripts/verify-bundle.ts", file], { encoding: "utf8" });
 
@@ -170,9 +206,10 @@ describe("npm run verify-bundle", () => {
     const ok = cli(good);
     expect(ok.status).toBe(0);
     const lines = ok.stdout.trim().split("\n");
-    expect(lines).toHaveLength(files.length + 2);
+    expect(lines).toHaveLength(files.length + 3);
     expect(lines[0]).toMatch(/^ok +README\.txt +sha256 [0-9a-f]{64}$/);
-    expect(lines.at(-1)).toBe(`verified: all ${files.length + 1} files match manifest.json`);
+    expect(lines.at(-2)).toMatch(/^ok +figure +Drawn again from figure\.json .* byte for byte the signed-off one/);
+    expect(lines.at(-1)).toBe(`verified: all ${files.length + 1} files match manifest.json, and the figure drawn again is the signed-off one`);
 
     const bad = path.join(dir, "bad.zip");
     writeFileSync(bad, repacked((e) => void (e["prediction-qed.csv"][200] ^= 1)));
@@ -180,6 +217,15 @@ describe("npm run verify-bundle", () => {
     expect(failed.status).toBe(1);
     expect(failed.stdout).toMatch(/^differs +prediction-qed\.csv +sha256 [0-9a-f]{64}, manifest says [0-9a-f]{64}$/m);
     expect(failed.stdout.trim().split("\n").at(-1)).toBe(`NOT verified: 1 of ${files.length + 1} files do not match manifest.json`);
+
+    // Data changed in figure.json and its hash put into the manifest: every hash agrees, yet the
+    // figure drawn from the changed data is not the signed-off picture.
+    const forged = path.join(dir, "forged.zip");
+    writeFileSync(forged, forgedData());
+    const caught = cli(forged);
+    expect(caught.status).toBe(1);
+    expect(caught.stdout).toMatch(/^differs +figure +Drawn again from figure\.json the figure's SVG is [0-9a-f]{12}…, but manifest\.json names the signed-off SVG/m);
+    expect(caught.stdout.trim().split("\n").at(-1)).toBe(`NOT verified: 0 of ${files.length + 1} files do not match manifest.json, the figure drawn again is not the signed-off one`);
 
     expect(cli(path.join(dir, "absent.zip")).status).toBe(2);
   });

@@ -30,7 +30,11 @@ export type AuditAction =
   | "signoff-requested"
   | "version-signed-off"
   | "version-returned"
-  | "version-commented";
+  | "version-commented"
+  | "export-requested"
+  | "export-preflight-overridden"
+  | "export-completed"
+  | "export-failed";
 
 export interface AuditEntry {
   action: AuditAction;

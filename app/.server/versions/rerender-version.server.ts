@@ -17,5 +17,5 @@ export async function rerenderVersion(db: Db, version: Pick<VersionRow, "manuscr
   const inputsMatch = snapshot.datasets.every((d) => inputs[datasetInputKey(d.datasetId, d.revisionNumber)]?.contentHash === d.contentHash);
   const rendered = await renderFigure(snapshot.model, inputs, sealedMetadata(snapshot));
   const svgSha256 = sha256Hex(rendered.svg);
-  return { svg: rendered.svg, svgSha256, inputsMatch, matches: inputsMatch && svgSha256 === version.svg_sha256 };
+  return { svg: rendered.svg, svgSha256, inputsMatch, matches: inputsMatch && svgSha256 === version.svg_sha256, rendered, inputs };
 }
