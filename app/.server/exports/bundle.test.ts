@@ -36,7 +36,8 @@ beforeAll(async () => {
   dir = mkdtempSync(path.join(tmpdir(), "steradian-bundle-"));
   const model = referenceModel();
   // A snapshot as sealing writes one, so that verification can draw the figure again from figure.json.
-  const snapshot: VersionSnapshot = { format: 1, figure: { id: "6f1c2a9e-0d4b-4c3a-9b7e-2a1f3c4d5e61", title: "Reference figure", draftRevision: 3 }, number: 1, model, engineVersion: "0.1.0", datasets: [], predictions: [], problems: [] };
+  const snapshot: VersionSnapshot = { format: 1, figure: { id: "6f1c2a9e-0d4b-4c3a-9b7e-2a1f3c4d5e61", title: "Reference figure", draftRevision: 3 }, number: 1, model, engineVersion: "0.1.0", predictions: [], problems: [],
+    datasets: Object.values(referenceInputs()).map((d) => ({ datasetId: d.datasetId, datasetName: d.datasetName, revisionNumber: d.revisionNumber, revisionId: d.revisionId, contentHash: d.contentHash, rowCount: d.rows.length })) };
   const figure = await renderFigure(model, referenceInputs(), sealedMetadata(snapshot));
   EXTRA.svgSha256 = textSha256(figure.svg);
   const size = { widthPt: figure.built.widthPt, heightPt: figure.built.heightPt };
