@@ -79,6 +79,32 @@ async function freshVersion(reviewers: ("coauthor" | "corresponding")[]): Promis
   }
   return n;
 }
+/** A signed-off version of the versions figure, made once: sealed by the contributor, signed off by the co-author. */
+let signedOff: Promise<number> | undefined;
+function signedOffVersion(): Promise<number> {
+  signedOff ??= (async () => {
+    const n = await freshVersion(["coauthor"]);
+    expect((await clients.coauthor.postJson(`/api/v1/figures/${versionFigureId}/versions/${n}/sign-off`, {})).status).toBe(200);
+    return n;
+  })();
+  return signedOff;
+}
+
+/** An export of that version, finished by the app's worker, made once. */
+let exported: Promise<string> | undefined;
+function doneExport(): Promise<string> {
+  exported ??= (async () => {
+    const res = await clients.corresponding.postJson(`/api/v1/figures/${versionFigureId}/versions/${await signedOffVersion()}/exports`, {});
+    const id = ((await res.json()) as { export: { id: string } }).export.id;
+    for (;;) {
+      const body = (await (await clients.corresponding.get(`/api/v1/exports/${id}`)).json()) as { export: { state: string; reason: string | null } };
+      if (body.export.state === "done") return id;
+      if (body.export.state === "failed") throw new Error(`the matrix export failed: ${body.export.reason}`);
+      await new Promise((r) => setTimeout(r, 300));
+    }
+  })();
+  return exported;
+}
 const coauthorId = async () => (await db.selectFrom("membership").select("user_id").where("manuscript_id", "=", manuscriptId).where("role", "=", "coauthor").executeTakeFirstOrThrow()).user_id;
 
 /** The stored draft and its revision, so that an allowed save is never stale. */
@@ -269,6 +295,29 @@ const cases: Case[] = [
   {
     name: "POST /api/v1/figures/:f/versions/:n/comments", allowed: READERS_OF_RAW, okStatus: 201,
     call: (c) => c.postJson(`/api/v1/figures/${versionFigureId}/versions/1/comments`, { comment: `note ${fresh()}` }), denied: apiDenied, anonymous: 401,
+  },
+  // Exports (issue 10): only a corresponding author, only a signed-off version; checking a bundle needs no account.
+  {
+    name: "POST /api/v1/figures/:f/versions/:n/exports", allowed: ["corresponding"], okStatus: 202,
+    call: async (c) => c.postJson(`/api/v1/figures/${versionFigureId}/versions/${await signedOffVersion()}/exports`, {}), denied: apiDenied, anonymous: 401,
+  },
+  { name: "GET /api/v1/figures/:f/versions/:n/exports", allowed: ["corresponding"], call: async (c) => c.get(`/api/v1/figures/${versionFigureId}/versions/${await signedOffVersion()}/exports`), denied: apiDenied, anonymous: 401 },
+  {
+    name: "POST /manuscripts/:id/figures/:f/versions/:n (export)", allowed: ["corresponding"],
+    call: async (c) => c.post(`/manuscripts/${manuscriptId}/figures/${versionFigureId}/versions/${await signedOffVersion()}`, { intent: "export" }), denied: pageDenied, anonymous: 302,
+  },
+  { name: "GET /api/v1/exports/:e", allowed: ["corresponding"], call: async (c) => c.get(`/api/v1/exports/${await doneExport()}`), denied: apiDenied, anonymous: 401 },
+  { name: "GET /api/v1/exports/:e/files/bundle.zip", allowed: ["corresponding"], call: async (c) => c.get(`/api/v1/exports/${await doneExport()}/files/bundle.zip`), denied: apiDenied, anonymous: 401 },
+  { name: "GET /api/v1/exports/:e/files/figure.pdf", allowed: ["corresponding"], call: async (c) => c.get(`/api/v1/exports/${await doneExport()}/files/figure.pdf`), denied: apiDenied, anonymous: 401 },
+  { name: "GET /verify (check a bundle)", allowed: EVERYONE, call: (c) => c.get("/verify"), denied: () => 0, anonymous: 200 },
+  {
+    name: "POST /verify (check a bundle)", allowed: EVERYONE,
+    call: (c) => {
+      const form = new FormData();
+      form.set("bundle", new Blob([new Uint8Array([80, 75, 5, 6])], { type: "application/zip" }), "empty.zip");
+      return c.request("/verify", { method: "POST", body: form });
+    },
+    denied: () => 0, anonymous: 200,
   },
   {
     name: "GET a version the figure does not have (the matrix figure is never sealed)", allowed: [],
