@@ -9,7 +9,7 @@ import { createBlobStoreFromEnv } from "../app/.server/storage/from-env.server";
 
 /** Starts `count` workers; returns a function that stops them and the queue connection. */
 export async function runWorkers(count: number): Promise<() => Promise<void>> {
-  const boss = await startBoss(env.DATABASE_URL, { maintenanceIntervalSeconds: Number(process.env.EXPORT_MAINTENANCE_SECONDS ?? 30) });
+  const boss = await startBoss(env.DATABASE_URL, { maintenanceIntervalSeconds: env.EXPORT_MAINTENANCE_SECONDS });
   const store = createBlobStoreFromEnv();
   const stops: (() => Promise<void>)[] = [];
   for (let i = 0; i < count; i++) stops.push(await startExportWorker(db, store, boss));

@@ -23,6 +23,8 @@ const EnvSchema = z.object({
   SIGN_IN_MAX_FAILURES_PER_ADDRESS: z.coerce.number().int().positive().default(20),
   SIGN_IN_WINDOW_MINUTES: z.coerce.number().int().positive().default(15),
   BCRYPT_COST: z.coerce.number().int().min(4).max(15).default(12),
+  // How often a worker's pg-boss looks for jobs whose worker died (docs/decisions/0011-export-jobs.md).
+  EXPORT_MAINTENANCE_SECONDS: z.coerce.number().int().min(1).max(3600).default(30),
 });
 
 export type Env = z.infer<typeof EnvSchema> & { SESSION_SECRET: string };

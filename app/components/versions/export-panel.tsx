@@ -63,7 +63,7 @@ function PreflightAndForm({ report, versionNumber, busy }: { report: VersionPref
           {report.checks.map((c) => (
             <tr key={c.id} data-testid={`preflight-${c.id}`} className="align-top">
               <td className="py-1">{c.label}</td>
-              <td className={c.pass ? "" : "font-semibold text-madder"}><Shape name={c.pass ? "check" : "cross"} /> {c.pass ? "passes" : "fails"}</td>
+              <td className={`whitespace-nowrap pr-2 ${c.pass ? "" : "font-semibold text-madder"}`}><Shape name={c.pass ? "check" : "cross"} /> {c.pass ? "passes" : "fails"}</td>
               <td className="num font-mono text-xs">{c.measured}</td>
               <td className="text-xs text-ink-soft">{c.limit}</td>
             </tr>
@@ -82,7 +82,7 @@ function PreflightAndForm({ report, versionNumber, busy }: { report: VersionPref
             {failing.length > 0 ? `Export v${versionNumber} despite the preflight` : `Export v${versionNumber}`}
           </Button>
         </div>
-        <p className="text-xs text-ink-faint">Drawn again from the sealed snapshot; refused if the picture is not byte for byte the signed-off one. PDF, SVG, PNG and the submission bundle.</p>
+        <p className="text-xs text-ink-faint">Drawn again from the sealed snapshot; refused if the picture is not byte for byte the signed-off one. PDF, SVG, PNG and the submission bundle, which anyone can check at <a className="underline underline-offset-4" href="/verify">/verify</a>.</p>
       </Form>
     </>
   );
