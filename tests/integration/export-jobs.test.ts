@@ -115,4 +115,41 @@ describe("the job lifecycle on a database of its own", () => {
     // A finished export never changes again (a trigger).
     await expect(own.db.updateTable("figure_export").set({ state: "done" }).where("id", "=", requested.id).execute()).rejects.toThrow(/a finished export does not change/);
   }, 180_000);
+
+  it("blocks an export whose preflight fails, unless the corresponding author overrides it with a reason", async () => {
+    const { findFigure, saveDraft } = await import("../../app/.server/figures/figure-repository.server");
+    const { sealVersion } = await import("../../app/.server/versions/seal-version.server");
+    const { requestSignoff, decideVersion } = await import("../../app/.server/versions/review.server");
+    const { figureModelSchema } = await import("../../app/figures/figure-model");
+    const idOf = async (email: string) => (await own.db.selectFrom("app_user").select("id").where("email", "=", email).executeTakeFirstOrThrow()).id;
+    const [ada, bruno] = [await idOf(DEMO.contributor), await idOf(DEMO.coauthor)];
+    // The demo figure with its text at 5.5 pt, below the single-column preset's 7 pt, sealed and signed off as v3.
+    const figure = (await findFigure(own.db, (await signedOff()).figure_id))!;
+    const model = figureModelSchema.parse(figure.draft);
+    model.fontSizePt = 5.5;
+    const saved = await saveDraft(own.db, { figureId: figure.id, manuscriptId: figure.manuscript_id, baseRevision: figure.draft_revision, model, userId: ada, ip: null });
+    if (saved.kind !== "saved") throw new Error("the draft did not save");
+    await sealVersion(own.db, { figureId: figure.id, userId: ada, draftRevision: saved.draftRevision, ip: null, mail: "skip" });
+    const v3 = await own.db.selectFrom("figure_version").selectAll().where("figure_id", "=", figure.id).where("number", "=", 3).executeTakeFirstOrThrow();
+    await requestSignoff(own.db, { version: v3, requesterId: ada, reviewerIds: [bruno], ip: null, mail: "skip" });
+    await decideVersion(own.db, { version: v3, reviewerId: bruno, decision: "signed-off", comment: null, ip: null, mail: "skip" });
+    const store = blobs.createBlobStore({ driver: "local", root: storeDir });
+
+    const blocked = await jobs.requestExport(own.db, boss, { version: v3, userId: carla, overrideReason: null, ip: null });
+    expect(await jobs.runExportJob(own.db, store, { data: { exportId: blocked.id }, retryCount: 0, retryLimit: 2 })).toBe("failed");
+    const refused = await rowOf(blocked.id);
+    expect(refused.reason).toMatch(/^The preflight failed: smallest text 5\.5 pt \(needs at least 7 pt\)\. Export again with a reason to override it\.$/);
+    expect((refused.preflight as { id: string; pass: boolean }[]).filter((c) => !c.pass).map((c) => c.id)).toEqual(["text-size"]);
+    expect(refused.bundle_key).toBeNull();
+
+    const reason = "The editor accepts 5.5 pt labels for this inset.";
+    const overridden = await jobs.requestExport(own.db, boss, { version: v3, userId: carla, overrideReason: reason, ip: null });
+    expect(await jobs.runExportJob(own.db, store, { data: { exportId: overridden.id }, retryCount: 0, retryLimit: 2 })).toBe("done");
+    const made = await rowOf(overridden.id);
+    expect([made.state, made.override_reason]).toEqual(["done", reason]);
+    const audit = await own.db.selectFrom("audit_event").select(["action", "detail"]).where(sql<boolean>`detail->>'exportId' = ${overridden.id}`).orderBy("id").execute();
+    expect(audit.map((a) => a.action)).toEqual(["export-requested", "export-preflight-overridden", "export-completed"]);
+    expect(audit[1].detail).toEqual(expect.objectContaining({ reason }));
+    expect(audit[2].detail).toEqual(expect.objectContaining({ overridden: true }));
+  }, 180_000);
 });

@@ -130,7 +130,7 @@ describe("an export through the app's worker", () => {
     expect(execFileSync("node_modules/.bin/tsx", ["scripts/verify-bundle.ts", zipFile], { encoding: "utf8" })).toMatch(/verified: all \d+ files match manifest\.json, and the figure drawn again is the signed-off one\n$/);
   }, 120_000);
 
-  it("writes a PDF whose fonts pdffonts finds all embedded and none of Type 3, and a self-contained SVG", () => {
+  it("writes a PDF in which pdffonts finds no font at all (so none unembedded, none Type 3), and a self-contained SVG", () => {
     const pdf = path.join(dir, "figure.pdf");
     writeFileSync(pdf, files["figure.pdf"]);
     const rows = execFileSync("pdffonts", [pdf], { encoding: "utf8" }).trimEnd().split("\n").slice(2);
