@@ -1,3 +1,4 @@
+import "./zod-jitless";
 import { Links, Meta, Outlet, Scripts, ScrollRestoration, isRouteErrorResponse, useRouteLoaderData } from "react-router";
 import { useContext } from "react";
 import type { Route } from "./+types/root";

@@ -80,7 +80,8 @@ export function securityHeaders({ production }) {
         "style-src": ["'self'", "'unsafe-inline'"],
         "img-src": ["'self'", "data:", "blob:"],
         "font-src": ["'self'", "data:"],
-        "connect-src": ["'self'"],
+        // blob: for files the page makes itself (the preview saved as drawn).
+        "connect-src": ["'self'", "blob:"],
         "worker-src": ["'self'", "blob:"],
         "object-src": ["'none'"],
         "base-uri": ["'self'"],
