@@ -3,7 +3,10 @@
 import { createRequestHandler } from "@react-router/express";
 import compression from "compression";
 import express from "express";
+import { clusterPrimary } from "./lib/cluster-primary.js";
 import { DEFAULT_BODY_MAX_BYTES, limitRequestBodies, noStoreForSignedIn, securityHeaders } from "./lib/http-hardening.js";
+
+await clusterPrimary();
 
 const port = Number(process.env.PORT ?? 3000);
 const host = process.env.HOST ?? "127.0.0.1";
