@@ -1,5 +1,8 @@
+import "./zod-jitless";
 import { Links, Meta, Outlet, Scripts, ScrollRestoration, isRouteErrorResponse, useRouteLoaderData } from "react-router";
+import { useContext } from "react";
 import type { Route } from "./+types/root";
+import { CspNonceContext } from "./csp-nonce";
 import "./app.css";
 import { optionalUser } from "./.server/platform/http/guards.server";
 import { db } from "./.server/platform/db.server";
@@ -17,6 +20,7 @@ export const shouldRevalidate = () => true;
 
 export function Layout({ children }: { children: React.ReactNode }) {
   const data = useRouteLoaderData<typeof loader>("root");
+  const nonce = useContext(CspNonceContext);
   return (
     <html lang="en">
       <head>
@@ -28,8 +32,8 @@ export function Layout({ children }: { children: React.ReactNode }) {
       <body className="min-h-screen bg-paper text-ink antialiased">
         <SiteHeader user={data?.user ?? null} unread={data?.unread ?? 0} />
         <main className="mx-auto max-w-6xl px-6 pb-16 pt-6">{children}</main>
-        <ScrollRestoration />
-        <Scripts />
+        <ScrollRestoration nonce={nonce} />
+        <Scripts nonce={nonce} />
       </body>
     </html>
   );

@@ -8,6 +8,7 @@ import * as m20261201_1600 from "./migrations/2026_12_01_1600_lock_manuscript_in
 import * as m20261201_1700 from "./migrations/2026_12_01_1700_check_dataset_row_revision_per_statement";
 import * as m20261202_0900 from "./migrations/2026_12_02_0900_create_figures";
 import * as m20261203_0900 from "./migrations/2026_12_03_0900_create_figure_versions";
+import * as m20261204_0900 from "./migrations/2026_12_04_0900_create_user_sessions";
 import * as m20261204_1100 from "./migrations/2026_12_04_1100_create_figure_exports";
 
 export const MIGRATIONS: Record<string, Migration> = {
@@ -17,5 +18,6 @@ export const MIGRATIONS: Record<string, Migration> = {
   "2026_12_01_1700_check_dataset_row_revision_per_statement": m20261201_1700,
   "2026_12_02_0900_create_figures": m20261202_0900,
   "2026_12_03_0900_create_figure_versions": m20261203_0900,
+  "2026_12_04_0900_create_user_sessions": m20261204_0900,
   "2026_12_04_1100_create_figure_exports": m20261204_1100,
 };

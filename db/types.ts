@@ -78,6 +78,14 @@ export interface ApiTokenTable {
   revoked_at: NullableTimestamp;
 }
 
+/** A signed-in browser; deleting the row ends the session (docs/decisions/0012-hardening.md). */
+export interface UserSessionTable {
+  id: Generated<string>;
+  user_id: string;
+  created_at: GeneratedTimestamp;
+  expires_at: Timestamp;
+}
+
 export interface SignInAttemptTable {
   id: Generated<number>;
   email: string;
@@ -238,6 +246,7 @@ export interface Database {
   invitation: InvitationTable;
   one_time_token: OneTimeTokenTable;
   api_token: ApiTokenTable;
+  user_session: UserSessionTable;
   sign_in_attempt: SignInAttemptTable;
   audit_event: AuditEventTable;
   dataset: DatasetTable;

@@ -3,6 +3,10 @@
 import { createRequestHandler } from "@react-router/express";
 import compression from "compression";
 import express from "express";
+import { clusterPrimary } from "./lib/cluster-primary.js";
+import { DEFAULT_BODY_MAX_BYTES, limitRequestBodies, noStoreForSignedIn, securityHeaders } from "./lib/http-hardening.js";
+
+await clusterPrimary();
 
 const port = Number(process.env.PORT ?? 3000);
 const host = process.env.HOST ?? "127.0.0.1";
@@ -13,12 +17,20 @@ app.disable("x-powered-by");
 // Behind a load balancer, TRUST_PROXY (e.g. "1" or "loopback") makes req.ip the client's address,
 // which the per-address sign-in throttle counts (Express "trust proxy" setting).
 if (process.env.TRUST_PROXY) app.set("trust proxy", /^\d+$/.test(process.env.TRUST_PROXY) ? Number(process.env.TRUST_PROXY) : process.env.TRUST_PROXY);
+app.use(securityHeaders({ production: process.env.NODE_ENV === "production" }));
+app.use(
+  limitRequestBodies({
+    uploadMaxBytes: Number(process.env.UPLOAD_MAX_BYTES ?? 50 * 1024 * 1024),
+    bodyMaxBytes: Number(process.env.BODY_MAX_BYTES ?? DEFAULT_BODY_MAX_BYTES),
+  }),
+);
 app.use(compression());
 app.use("/assets", express.static("build/client/assets", { immutable: true, maxAge: "1y" }));
 app.use(express.static("build/client", { maxAge: "1h" }));
 app.all(
   "/{*splat}",
-  createRequestHandler({ build, mode: process.env.NODE_ENV, getLoadContext: (req) => ({ ip: req.ip ?? "unknown" }) }),
+  noStoreForSignedIn,
+  createRequestHandler({ build, mode: process.env.NODE_ENV, getLoadContext: (req, res) => ({ ip: req.ip ?? "unknown", cspNonce: res.locals.cspNonce }) }),
 );
 
 const server = app.listen(port, host, () => {

@@ -64,7 +64,7 @@ for port in "$APP_PORT" "$SMTP_PORT" "$MAIL_HTTP_PORT"; do
 done
 node_modules/.bin/tsx scripts/mail-catcher.ts --smtp "$SMTP_PORT" --http "$MAIL_HTTP_PORT" >/dev/null &
 pids+=($!)
-node_modules/.bin/tsx scripts/prepare-storage.ts
+DATABASE_URL="$(database_url steradian_test_app)" node_modules/.bin/tsx scripts/prepare-storage.ts
 PORT="$APP_PORT" DATABASE_URL="$(database_url steradian_test_app)" SMTP_URL="smtp://127.0.0.1:$SMTP_PORT" \
   MAIL_CATCHER_URL="http://127.0.0.1:$MAIL_HTTP_PORT" SIGN_IN_MAX_FAILURES_PER_ADDRESS=1000 \
   UPLOAD_MAX_BYTES="${TEST_UPLOAD_MAX_BYTES:-2097152}" UPLOAD_MAX_ROWS="${TEST_UPLOAD_MAX_ROWS:-20000}" \

@@ -9,9 +9,11 @@ export function PredictionChart({ spec, description }: Props) {
   useEffect(() => {
     let cancelled = false;
     let finalize: (() => void) | undefined;
-    import("vega-embed").then(({ default: embed }) => {
+    // vega's interpreter instead of Function()-compiled expressions: the Content-Security-Policy
+    // has no 'unsafe-eval' (docs/decisions/0012-hardening.md).
+    Promise.all([import("vega-embed"), import("vega-interpreter")]).then(([{ default: embed }, { expressionInterpreter }]) => {
       if (cancelled || !ref.current) return;
-      embed(ref.current, spec, { actions: false, renderer: "svg" }).then((r) => {
+      embed(ref.current, spec, { actions: false, renderer: "svg", ast: true, expr: expressionInterpreter }).then((r) => {
         if (cancelled) r.finalize();
         else finalize = () => r.finalize();
       });

@@ -4,6 +4,7 @@ export type DatasetProblemCode =
   | "no-data-rows"
   | "not-utf8"
   | "csv-syntax"
+  | "too-many-columns"
   | "header-numeric"
   | "header-missing"
   | "header-duplicate"

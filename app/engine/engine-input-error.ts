@@ -14,3 +14,16 @@ export class EngineInputError extends Error {
     this.field = field;
   }
 }
+
+const QUOTE_MAX_CHARS = 40;
+
+/**
+ * A bad value as an error message quotes it: JSON, cut to its first 40 characters (with the
+ * full length named), so that a 50 MB string never comes back whole in an answer.
+ */
+export function quoteValue(v: unknown): string {
+  const text = typeof v === "string" ? JSON.stringify(v) : (JSON.stringify(v) ?? String(v));
+  if (text.length <= QUOTE_MAX_CHARS) return text;
+  const length = typeof v === "string" ? `${v.length.toLocaleString("en")} characters` : `${text.length.toLocaleString("en")} characters as JSON`;
+  return `${text.slice(0, QUOTE_MAX_CHARS)}… (${length})`;
+}

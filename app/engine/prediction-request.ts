@@ -1,5 +1,5 @@
 import { DEFAULT_RELATIVE_TOLERANCE } from "./adaptive-quadrature";
-import { EngineInputError } from "./engine-input-error";
+import { EngineInputError, quoteValue } from "./engine-input-error";
 import type { FormFactorSpec } from "./form-factor";
 import type { EnergyKind } from "./mandelstam-s-from-energy";
 import type { AngleVariable, Observable } from "./observables";
@@ -69,12 +69,15 @@ const fail = (code: string, field: string, message: string): never => {
   throw new EngineInputError(code, field, message);
 };
 
+/** A field name from the request, cut like a quoted value (an unknown key may be huge). */
+const shortField = (name: string) => (name.length > 40 ? `${name.slice(0, 40)}…` : name);
+
 function isRecord(v: unknown): v is Record<string, unknown> {
   return typeof v === "object" && v !== null && !Array.isArray(v);
 }
 
 function finiteNumber(v: unknown, field: string, what: string): number {
-  if (typeof v !== "number") fail("not_a_number", field, `${field} must be a number (${what}), got ${JSON.stringify(v) ?? String(v)}`);
+  if (typeof v !== "number") fail("not_a_number", field, `${field} must be a number (${what}), got ${quoteValue(v)}`);
   if (!Number.isFinite(v as number)) fail("not_a_number", field, `${field} must be a finite number (${what}), got ${String(v)}`);
   return v as number;
 }
@@ -112,13 +115,13 @@ function positive(v: unknown, field: string, what: string, code = "invalid_mass"
 
 function onlyKeys(record: Record<string, unknown>, allowed: readonly string[], prefix: string): void {
   for (const key of Object.keys(record)) {
-    if (!allowed.includes(key)) fail("unknown_field", `${prefix}${key}`, `unknown field "${prefix}${key}"; allowed here: ${allowed.join(", ")}`);
+    if (!allowed.includes(key)) fail("unknown_field", shortField(`${prefix}${key}`), `unknown field ${quoteValue(prefix + key)}; allowed here: ${allowed.join(", ")}`);
   }
 }
 
 function energyUnit(v: unknown, field: string): EnergyUnit {
   if (v === undefined) return "GeV";
-  if (!ENERGY_UNITS.includes(v as EnergyUnit)) fail("unknown_unit", field, `${field} must be one of ${ENERGY_UNITS.join(", ")}, got ${JSON.stringify(v)}`);
+  if (!ENERGY_UNITS.includes(v as EnergyUnit)) fail("unknown_unit", field, `${field} must be one of ${ENERGY_UNITS.join(", ")}, got ${quoteValue(v)}`);
   return v as EnergyUnit;
 }
 
@@ -146,7 +149,7 @@ function parseFormFactor(v: unknown, definition: ProcessDefinition): FormFactorS
       q2: q2 as "s" | "t",
     };
   }
-  return fail("invalid_form_factor", "formFactor.model", `formFactor.model must be "monopole" or "vmd", got ${JSON.stringify(v.model)}`);
+  return fail("invalid_form_factor", "formFactor.model", `formFactor.model must be "monopole" or "vmd", got ${quoteValue(v.model)}`);
 }
 
 /**
@@ -158,18 +161,18 @@ function parseFormFactor(v: unknown, definition: ProcessDefinition): FormFactorS
 export function validatePredictionRequest(request: unknown): ValidatedRequest {
   if (!isRecord(request)) return fail("invalid_request", "", "the request must be a JSON object");
   for (const key of Object.keys(request)) {
-    if (!TOP_LEVEL.has(key)) fail("unknown_field", key, `unknown field "${key}"; allowed: ${[...TOP_LEVEL].join(", ")}`);
+    if (!TOP_LEVEL.has(key)) fail("unknown_field", shortField(key), `unknown field ${quoteValue(key)}; allowed: ${[...TOP_LEVEL].join(", ")}`);
   }
   if (typeof request.process !== "string") fail("missing_field", "process", `process is required: one of ${PROCESSES.map((p) => p.id).join(", ")}`);
   const definition = findProcess(request.process as string);
   if (definition === undefined) {
-    return fail("unknown_process", "process", `unknown process "${String(request.process)}": use one of ${PROCESSES.map((p) => p.id).join(", ")}`);
+    return fail("unknown_process", "process", `unknown process ${quoteValue(request.process)}: use one of ${PROCESSES.map((p) => p.id).join(", ")}`);
   }
   const info = definition.info;
   const frame = request.frame;
-  if (frame !== "lab" && frame !== "cm") fail("unknown_frame", "frame", `frame must be "lab" or "cm", got ${JSON.stringify(frame)}`);
+  if (frame !== "lab" && frame !== "cm") fail("unknown_frame", "frame", `frame must be "lab" or "cm", got ${quoteValue(frame)}`);
   if (!info.frames.includes(frame as Frame)) {
-    fail("frame_not_offered", "frame", `${info.reaction} is offered in the ${info.frames.join(" and ")} frame only, not "${String(frame)}"`);
+    fail("frame_not_offered", "frame", `${info.reaction} is offered in the ${info.frames.join(" and ")} frame only, not ${quoteValue(frame)}`);
   }
   const observable = (request.observable ?? "dsigma/dOmega") as Observable;
   if (!OBSERVABLES.includes(observable)) fail("unknown_observable", "observable", `observable must be one of ${OBSERVABLES.join(", ")}`);
@@ -194,7 +197,7 @@ export function validatePredictionRequest(request: unknown): ValidatedRequest {
   if (typeof unitText !== "string") return fail("unknown_unit", "unit", `unit must be a string such as "${NATURAL_UNIT[observable]}"`);
   const unit = parseUnit(unitText);
   if (unit.dimension !== DIMENSION_OF[observable]) {
-    fail("unit_mismatch", "unit", `unit "${unitText}" does not fit ${OBSERVABLE_LABEL[observable]}`);
+    fail("unit_mismatch", "unit", `unit ${quoteValue(unitText)} does not fit ${OBSERVABLE_LABEL[observable]}`);
   }
 
   // energy, or an energy scan

@@ -1,4 +1,4 @@
-import { EngineInputError } from "./engine-input-error";
+import { EngineInputError, quoteValue } from "./engine-input-error";
 import { PHYSICAL_CONSTANTS } from "./physical-constants";
 
 export type UnitDimension = "area" | "area/sr" | "area/GeV2";
@@ -59,7 +59,7 @@ export function parseUnit(text: string): ParsedUnit {
   const per = slash < 0 ? "" : spelled.slice(slash + 1);
   const toNatural = AREAS[area];
   if (toNatural === undefined || (per !== "" && per !== "sr" && per !== "GeV^2")) {
-    throw new EngineInputError("unknown_unit", "unit", `unit "${text}" is not known: use ${ALLOWED}`);
+    throw new EngineInputError("unknown_unit", "unit", `unit ${quoteValue(text)} is not known: use ${ALLOWED}`);
   }
   const dimension: UnitDimension = per === "sr" ? "area/sr" : per === "GeV^2" ? "area/GeV2" : "area";
   return { text, dimension, toNatural };

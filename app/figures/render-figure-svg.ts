@@ -1,4 +1,5 @@
 import * as vega from "vega";
+import { expressionInterpreter } from "vega-interpreter";
 import { compile, type TopLevelSpec } from "vega-lite";
 import type { BuiltFigure, MeasureTex, PlacedTex } from "./build-figure";
 import { FIGURE_BACKGROUND } from "./build-figure";
@@ -95,7 +96,9 @@ function parsedPlot(spec: Record<string, unknown>): { runtime: vega.Runtime; row
   const key = JSON.stringify(shape);
   let runtime = parsedSpecs.get(key);
   if (runtime === undefined) {
-    runtime = vega.parse(compile(shape as TopLevelSpec).spec);
+    // An expression tree, run by vega's interpreter rather than compiled with Function(): the
+    // page's Content-Security-Policy has no 'unsafe-eval' (docs/decisions/0012-hardening.md).
+    runtime = vega.parse(compile(shape as TopLevelSpec).spec, undefined, { ast: true });
     if (parsedSpecs.size >= PARSED_SPECS_KEPT) parsedSpecs.delete(parsedSpecs.keys().next().value!);
     parsedSpecs.set(key, runtime);
   }
@@ -104,7 +107,7 @@ function parsedPlot(spec: Record<string, unknown>): { runtime: vega.Runtime; row
 
 async function plotSvg(spec: Record<string, unknown>, prefix: string): Promise<string> {
   const { runtime, rows } = parsedPlot(spec);
-  const view = new vega.View(runtime, { renderer: "none" });
+  const view = new vega.View(runtime, { renderer: "none", expr: expressionInterpreter });
   try {
     for (const [name, values] of rows) view.data(name, values);
     return canonicaliseIds(await view.toSVG(), prefix);

@@ -6,6 +6,8 @@ import { db } from "~/.server/platform/db.server";
 import { parseForm } from "~/.server/platform/http/forms.server";
 import { requireUser } from "~/.server/platform/http/guards.server";
 import { clientIp } from "~/.server/platform/http/client-address.server";
+import { recordAudit } from "~/.server/platform/audit.server";
+import { endAllSessions, endSession } from "~/.server/platform/session.server";
 import { Button } from "~/components/ui/button";
 import { Field } from "~/components/ui/field";
 import { Notice } from "~/components/ui/notice";
@@ -18,6 +20,7 @@ export async function loader({ request }: Route.LoaderArgs) {
 const TokenAction = z.discriminatedUnion("intent", [
   z.object({ intent: z.literal("create-token"), name: z.string().trim().min(1, "Name the token, e.g. “analysis laptop”.").max(80, "At most 80 characters.") }),
   z.object({ intent: z.literal("revoke-token"), tokenId: z.uuid("Unknown token.") }),
+  z.object({ intent: z.literal("sign-out-everywhere") }),
 ], { message: "Unknown action." });
 
 export async function action({ request, context }: Route.ActionArgs) {
@@ -25,6 +28,11 @@ export async function action({ request, context }: Route.ActionArgs) {
   const parsed = await parseForm(request, TokenAction);
   if (!parsed.ok) return parsed.response;
   const ip = clientIp(context);
+  if (parsed.value.intent === "sign-out-everywhere") {
+    const ended = await endAllSessions(db, user.id);
+    await recordAudit(db, { action: "sign-out-everywhere", actorId: user.id, ip, detail: { sessions: ended } });
+    return endSession(request, "/sign-in");
+  }
   if (parsed.value.intent === "create-token") {
     const token = await createApiToken(db, user.id, parsed.value.name, ip);
     return { ok: true as const, created: { name: token.name, secret: token.secret } };
@@ -80,6 +88,13 @@ export default function Account() {
           ))}
         </tbody>
       </table>
+
+      <h2 className="mt-10 text-xl">Signed-in browsers</h2>
+      <p className="mt-1 text-sm text-ink-soft">Ends the session of every browser signed in as you, this one included (a lost laptop, a shared computer). Access tokens stay valid; revoke them above.</p>
+      <Form method="post" className="mt-3">
+        <input type="hidden" name="intent" value="sign-out-everywhere" />
+        <Button type="submit">Sign out everywhere</Button>
+      </Form>
     </div>
   );
 }

@@ -1,11 +1,9 @@
 import { Form, useActionData, useNavigation } from "react-router";
 import type { Route } from "./+types/verify-bundle";
 import { verifyBundleAndFigure } from "~/.server/exports/verify-bundle-figure.server";
+import { env } from "~/.server/platform/env.server";
 import { Button } from "~/components/ui/button";
 import { Notice } from "~/components/ui/notice";
-
-/** Largest bundle this page reads: 200 MB, far above a figure's bundle. */
-const MAX_BUNDLE_BYTES = 200_000_000;
 
 /**
  * Anyone (no account) uploads a submission bundle and gets the same report as
@@ -13,8 +11,10 @@ const MAX_BUNDLE_BYTES = 200_000_000;
  * Nothing is stored.
  */
 export async function action({ request }: Route.ActionArgs) {
+  // The server refuses a body above the upload limit before reading it (scripts/lib/http-hardening.js);
+  // this says the same in the page's words should the page be served without that middleware.
   const declared = Number(request.headers.get("Content-Length") ?? "0");
-  if (declared > MAX_BUNDLE_BYTES) return { ok: false as const, message: `The file is larger than ${MAX_BUNDLE_BYTES / 1e6} MB; run \`npm run verify-bundle\` on it instead.`, report: null };
+  if (declared > env.UPLOAD_MAX_BYTES) return { ok: false as const, message: `The file is larger than ${env.UPLOAD_MAX_BYTES.toLocaleString("en")} bytes, the upload limit; run \`npm run verify-bundle\` on it instead.`, report: null };
   const form = await request.formData();
   const file = form.get("bundle");
   if (!(file instanceof File) || file.size === 0) return { ok: false as const, message: "Choose the bundle's zip file.", report: null };

@@ -73,14 +73,19 @@ describe("sign-in", () => {
   it("an expired session (older than 7 days) signs the user out", async () => {
     const user = await db.selectFrom("app_user").select("id").where("email", "=", DEMO.contributor).executeTakeFirstOrThrow();
     // The same cookie settings and secret as the server: a genuine, correctly signed cookie.
+    // Both name a live server-side session (docs/decisions/0012-hardening.md), so that the
+    // cookie's own age is what refuses the old one.
     const storage = createCookieSessionStorage({ cookie: { name: "__steradian", secrets: [process.env.SESSION_SECRET!] } });
+    const live = () => db.insertInto("user_session").values({ user_id: user.id, expires_at: new Date(Date.now() + 3600_000) }).returning("id").executeTakeFirstOrThrow();
     const session = await storage.getSession();
     session.set("userId", user.id);
     session.set("issuedAt", Date.now() - 8 * 24 * 3600_000);
+    session.set("sessionId", (await live()).id);
     const header = await storage.commitSession(session);
     const fresh = await storage.getSession();
     fresh.set("userId", user.id);
     fresh.set("issuedAt", Date.now());
+    fresh.set("sessionId", (await live()).id);
     const freshHeader = await storage.commitSession(fresh);
 
     const ok = await new Client().get("/manuscripts", { Cookie: freshHeader.split(";")[0] });

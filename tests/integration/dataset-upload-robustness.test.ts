@@ -113,7 +113,7 @@ describe("upload robustness", () => {
     writeFileSync(orphan, "theta,dsigma\n30,1\n");
     expect(tempFiles()).toContain(path.basename(orphan));
     const { stdout } = await promisify(execFile)("node_modules/.bin/tsx", ["scripts/prepare-storage.ts"], {
-      env: { ...process.env, STORAGE_DIR: testEnv.storageDir, NODE_ENV: "development" },
+      env: { ...process.env, DATABASE_URL: testEnv.appDatabaseUrl, STORAGE_DIR: testEnv.storageDir, NODE_ENV: "development" },
     });
     expect(stdout).toMatch(/removed \d+ temporary upload file/);
     expect(tempFiles()).not.toContain(path.basename(orphan));

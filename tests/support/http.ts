@@ -12,6 +12,10 @@ export class Client {
   async request(path: string, init: RequestInit = {}): Promise<Response> {
     const headers = new Headers(init.headers);
     if (this.cookies.size && !headers.has("Cookie")) headers.set("Cookie", this.cookieHeader());
+    // A browser names the page's origin on every write; the app refuses cookie writes without it.
+    if (!["GET", "HEAD"].includes((init.method ?? "GET").toUpperCase()) && !headers.has("Origin")) headers.set("Origin", new URL(this.base).origin);
+    // `Origin: ""` asks for a write without any Origin header (as a non-browser client sends it).
+    if (headers.get("Origin") === "") headers.delete("Origin");
     const res = await fetch(new URL(path, this.base), { ...init, headers, redirect: "manual" });
     for (const c of res.headers.getSetCookie()) {
       const [pair, ...attrs] = c.split(";");

@@ -2,6 +2,7 @@ import { z } from "zod";
 import { recordAudit } from "../platform/audit.server";
 import type { Db } from "../platform/db.server";
 import { appLink, sendMail } from "../platform/mail.server";
+import { endAllSessions } from "../platform/session.server";
 import { hashSecret, newSecret } from "../platform/tokens.server";
 import { findUserByEmail, hashPassword } from "./users.server";
 
@@ -125,6 +126,8 @@ export async function resetPassword(db: Db, secret: string, password: string, ip
     const user = await tx.selectFrom("app_user").select("email").where("id", "=", userId).executeTakeFirstOrThrow();
     // A successful reset lifts the per-account throttle.
     await tx.deleteFrom("sign_in_attempt").where("email", "=", user.email).where("succeeded", "=", false).execute();
+    // Whoever knew the old password is signed out everywhere.
+    await endAllSessions(tx, userId);
     await recordAudit(tx, { action: "password-reset", actorId: userId, ip });
     return true;
   });

@@ -1,5 +1,6 @@
 import { recordAudit } from "../platform/audit.server";
 import type { Db } from "../platform/db.server";
+import { endAllSessions } from "../platform/session.server";
 import { requestPasswordReset } from "./accounts.server";
 
 export class AdminError extends Error {}
@@ -9,6 +10,7 @@ export async function setAccountStatus(db: Db, adminId: string, userId: string, 
   await db.transaction().execute(async (tx) => {
     const res = await tx.updateTable("app_user").set({ status }).where("id", "=", userId).executeTakeFirst();
     if (Number(res.numUpdatedRows) === 0) throw new AdminError("No such account.");
+    if (status === "disabled") await endAllSessions(tx, userId);
     await recordAudit(tx, { action: status === "disabled" ? "account-disabled" : "account-enabled", actorId: adminId, ip, detail: { userId } });
   });
 }

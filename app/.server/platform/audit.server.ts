@@ -4,6 +4,7 @@ export type AuditAction =
   | "sign-in"
   | "sign-in-failed"
   | "sign-out"
+  | "sign-out-everywhere"
   | "sign-up"
   | "email-confirmed"
   | "password-reset-requested"

@@ -23,9 +23,20 @@ export interface ReadCsvOutcome {
 
 // Enough to hold the header line of any sensible file; only used to choose the delimiter.
 const SNIFF_BYTES = 64 * 1024;
-const CHUNK_BYTES = 1 << 20;
+// Small chunks: csv-parse handles one chunk without yielding, so this bounds how long a large
+// upload holds the event loop at a time (docs/decisions/0012-hardening.md).
+const CHUNK_BYTES = 64 * 1024;
+/** The longest record (the header line included), in characters; csvSyntaxProblem names it. */
+const MAX_RECORD_CHARS = 128_000;
+/** The most columns a line may have; a measurement's table has a handful. */
+export const MAX_COLUMNS = 1000;
 
 class StopSignal extends Error {}
+class TooManyColumns extends Error {
+  constructor(readonly line: number, readonly count: number) {
+    super("too many columns");
+  }
+}
 
 /**
  * Streams a CSV file through csv-parse and calls `onRecord` for every record with the line
@@ -55,6 +66,10 @@ export async function readCsvRecords(
         callback();
         return;
       }
+      if (fields.length > MAX_COLUMNS) {
+        callback(new TooManyColumns(line, fields.length));
+        return;
+      }
       let verdict: void | typeof STOP;
       try {
         verdict = onRecord(fields, line);
@@ -73,6 +88,8 @@ export async function readCsvRecords(
     // Fields stay strings: numbers are parsed by our own strict reader, which explains
     // what is wrong with a field instead of guessing.
     cast: false,
+    // A 40 MB header line is refused at its 128,000th character instead of being parsed whole.
+    max_record_size: MAX_RECORD_CHARS,
   });
   try {
     await pipeline(createReadStream(filePath, { highWaterMark: CHUNK_BYTES }), createUtf8Guard(), parser, sink);
@@ -82,6 +99,8 @@ export async function readCsvRecords(
     } else if (error instanceof NotUtf8Error) {
       const line = await locateInvalidUtf8Line(filePath);
       return { delimiter, stopped, fatal: notUtf8Problem(line) };
+    } else if (error instanceof TooManyColumns) {
+      return { delimiter, stopped, fatal: tooManyColumnsProblem(error) };
     } else if (error instanceof CsvError) {
       return { delimiter, stopped, fatal: csvSyntaxProblem(error) };
     } else {
@@ -135,6 +154,16 @@ function notUtf8Problem(line: number | null): DatasetProblem {
   };
 }
 
+function tooManyColumnsProblem(error: TooManyColumns): DatasetProblem {
+  return {
+    code: "too-many-columns",
+    row: error.line,
+    column: null,
+    header: null,
+    message: `line ${error.line} has ${error.count.toLocaleString("en")} columns; a dataset takes at most ${MAX_COLUMNS.toLocaleString("en")} — is the delimiter right, and is this the measurement's table?`,
+  };
+}
+
 function csvSyntaxProblem(error: CsvError): DatasetProblem {
   const line = typeof error.lines === "number" ? error.lines : null;
   const messages: Record<string, string> = {
@@ -144,7 +173,7 @@ function csvSyntaxProblem(error: CsvError): DatasetProblem {
     CSV_NON_TRIMABLE_CHAR_AFTER_CLOSING_QUOTE: "text follows the closing quote of a field; put it inside the quotes or remove it",
     CSV_INVALID_OPENING_QUOTE:
       'a double quote appears inside a field that is not quoted; quote the whole field and write the inner quote twice ("")',
-    CSV_MAX_RECORD_SIZE: "a record is longer than 128 000 characters, which no data row of a measurement needs; is this a CSV file?",
+    CSV_MAX_RECORD_SIZE: `a line is longer than ${MAX_RECORD_CHARS.toLocaleString("en")} characters (the header line included), which no measurement needs; is this a CSV file?`,
   };
   return {
     code: "csv-syntax",

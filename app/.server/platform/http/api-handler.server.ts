@@ -30,8 +30,16 @@ export function methodNotAllowed(allowed: string) {
   });
 }
 
-/** The request's JSON body; anything else is thrown as a 422 that apiHandler passes on. */
+/**
+ * The request's JSON body; anything else is thrown as a 422 that apiHandler passes on. With the
+ * session cookie the body must also be declared JSON (415 otherwise): a cross-site form can send
+ * text/plain without asking first, never application/json.
+ */
 export async function readJsonBody(request: Request, code = "invalid-json"): Promise<unknown> {
+  const type = (request.headers.get("Content-Type") ?? "").split(";")[0].trim().toLowerCase();
+  if (!request.headers.has("Authorization") && !(type === "application/json" || type.endsWith("+json"))) {
+    throw apiError(415, "unsupported-media-type", "Send the body as JSON with 'Content-Type: application/json'.");
+  }
   try {
     return await request.json();
   } catch {

@@ -3,6 +3,7 @@ import { type ManuscriptAction, type MemberRole, ROLE_LABELS, can, canSite, role
 import { isUuid } from "~/is-uuid";
 import { apiError } from "./api-error.server";
 import { db } from "../db.server";
+import { env } from "../env.server";
 import { hashSecret } from "../tokens.server";
 import { clearSessionCookie, sessionUserId } from "../session.server";
 import { findActiveUser, type SessionUser } from "../../accounts/users.server";
@@ -29,6 +30,23 @@ export async function requireUser(request: Request): Promise<SessionUser> {
   throw redirect(to, hadCookie ? { headers: { "Set-Cookie": await clearSessionCookie(request) } } : undefined);
 }
 
+const SAFE_METHODS = new Set(["GET", "HEAD", "OPTIONS"]);
+
+/**
+ * A write authenticated by the session cookie must come from the app's own pages: its Origin is
+ * the app's (or, without an Origin, the browser says Sec-Fetch-Site: same-origin). A browser
+ * attaches the cookie to a form or fetch sent from any site; this is what tells them apart.
+ * Writes with a bearer token carry no ambient credentials and are not checked.
+ */
+export function isSameOriginWrite(request: Request): boolean {
+  if (SAFE_METHODS.has(request.method.toUpperCase())) return true;
+  const origin = request.headers.get("Origin");
+  if (origin !== null) return origin === new URL(request.url).origin || origin === new URL(env.APP_URL).origin;
+  return request.headers.get("Sec-Fetch-Site") === "same-origin";
+}
+
+export const CROSS_SITE_MESSAGE = "A change sent with the session cookie must come from Steradian's own pages (a same-origin Origin header); scripts send a personal access token instead.";
+
 /** API guard: a session cookie or `Authorization: Bearer <personal access token>`. */
 export async function requireApiUser(request: Request): Promise<SessionUser> {
   const header = request.headers.get("Authorization");
@@ -48,6 +66,7 @@ export async function requireApiUser(request: Request): Promise<SessionUser> {
   }
   const user = await optionalUser(request);
   if (!user) throw apiError(401, "unauthenticated", "Sign in, or send a personal access token as 'Authorization: Bearer <token>'.");
+  if (!isSameOriginWrite(request)) throw apiError(403, "cross-site", CROSS_SITE_MESSAGE);
   return user;
 }
 

@@ -1,0 +1,65 @@
+// React Router's default Node entry, plus the Content-Security-Policy nonce that scripts/serve.js
+// puts into the load context: every inline script the framework writes carries it
+// (docs/decisions/0012-hardening.md).
+import { PassThrough } from "node:stream";
+import type { AppLoadContext, EntryContext } from "react-router";
+import { createReadableStreamFromReadable } from "@react-router/node";
+import { ServerRouter } from "react-router";
+import { isbot } from "isbot";
+import type { RenderToPipeableStreamOptions } from "react-dom/server";
+import { renderToPipeableStream } from "react-dom/server";
+import { CspNonceContext } from "./csp-nonce";
+
+export const streamTimeout = 5_000;
+
+export default function handleRequest(
+  request: Request,
+  responseStatusCode: number,
+  responseHeaders: Headers,
+  routerContext: EntryContext,
+  loadContext: AppLoadContext,
+) {
+  if (request.method.toUpperCase() === "HEAD") {
+    return new Response(null, { status: responseStatusCode, headers: responseHeaders });
+  }
+  const nonceValue = (loadContext as { cspNonce?: unknown } | undefined)?.cspNonce;
+  const nonce = typeof nonceValue === "string" ? nonceValue : undefined;
+
+  return new Promise((resolve, reject) => {
+    let shellRendered = false;
+    const userAgent = request.headers.get("user-agent");
+    const readyOption: keyof RenderToPipeableStreamOptions =
+      (userAgent && isbot(userAgent)) || routerContext.isSpaMode ? "onAllReady" : "onShellReady";
+    let timeoutId: ReturnType<typeof setTimeout> | undefined = setTimeout(() => abort(), streamTimeout + 1000);
+
+    const { pipe, abort } = renderToPipeableStream(
+      <CspNonceContext.Provider value={nonce}>
+        <ServerRouter context={routerContext} url={request.url} nonce={nonce} />
+      </CspNonceContext.Provider>,
+      {
+        nonce,
+        [readyOption]() {
+          shellRendered = true;
+          const body = new PassThrough({
+            final(callback) {
+              clearTimeout(timeoutId);
+              timeoutId = undefined;
+              callback();
+            },
+          });
+          const stream = createReadableStreamFromReadable(body);
+          responseHeaders.set("Content-Type", "text/html");
+          pipe(body);
+          resolve(new Response(stream, { headers: responseHeaders, status: responseStatusCode }));
+        },
+        onShellError(error: unknown) {
+          reject(error);
+        },
+        onError(error: unknown) {
+          responseStatusCode = 500;
+          if (shellRendered) console.error(error);
+        },
+      },
+    );
+  });
+}
