@@ -66,8 +66,8 @@ function kernelAt(def: ProcessDefinition, p: PredictionParameters, kind: EnergyK
     throw new EngineInputError(
       "energy_too_high",
       field,
-      `√s = ${round(Math.sqrt(s))} GeV is above the Planck energy ${PLANCK_ENERGY_GEV} GeV, where a tree-level prediction has no meaning` +
-        (kind === "sqrtS" ? "" : ` (${kind === "beam" ? "total beam energy" : "beam kinetic energy"} ${valueGeV} GeV on the ${info.targetParticle} at rest)`),
+      (kind === "sqrtS" ? `√s = ${round(valueGeV)} GeV` : `the ${kind === "beam" ? "total beam energy" : "beam kinetic energy"} ${round(valueGeV)} GeV on the ${info.targetParticle} at rest`) +
+        " is above the Planck energy 1.22 × 10¹⁹ GeV, where a tree-level prediction has no meaning",
     );
   }
   const ff = p.formFactor === null ? null : formFactorSquared(p.formFactor);

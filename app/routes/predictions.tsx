@@ -1,7 +1,10 @@
 import { useEffect, useId, useMemo, useState } from "react";
-import { useLoaderData, useLocation } from "react-router";
+import { useFetcher, useLoaderData, useLocation } from "react-router";
 import type { Route } from "./+types/predictions";
 import { requireUser } from "~/.server/platform/http/guards.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
+import { addPredictionToFigure, editableFigures } from "./predictions.server";
+import { predictionLayerOf } from "~/components/predictions/prediction-layer";
 import { PHYSICAL_CONSTANTS, PROCESSES, type Observable, type PredictionResponse } from "~/engine";
 import { PredictionChart } from "~/components/prediction-chart";
 import { Fingerprint } from "~/components/fingerprint";
@@ -21,8 +24,14 @@ import { useLivePrediction } from "~/components/predictions/use-live-prediction"
 import { OBSERVABLE_TITLE, predictionChartSpec, xTitleOf, type ChartView } from "~/figures/prediction-chart-spec";
 
 export async function loader({ request }: Route.LoaderArgs) {
+  const user = await requireUser(request);
+  return { processes: PROCESSES, defaultAlpha: PHYSICAL_CONSTANTS.alpha, figures: await editableFigures(user.id) };
+}
+
+/** POST: adds the page's prediction to a figure's draft the user may edit. */
+export async function action({ request, context }: Route.ActionArgs) {
   await requireUser(request);
-  return { processes: PROCESSES, defaultAlpha: PHYSICAL_CONSTANTS.alpha };
+  return addPredictionToFigure(request, await request.formData(), clientIp(context));
 }
 
 const OBSERVABLES: { value: Observable; label: string }[] = [
@@ -47,7 +56,7 @@ function chartViewOf(f: PredictionFormState): { view: ChartView; errors: Partial
 }
 
 export default function Predictions() {
-  const { processes, defaultAlpha } = useLoaderData<typeof loader>();
+  const { processes, defaultAlpha, figures } = useLoaderData<typeof loader>();
   const location = useLocation();
   const [form, setForm] = useState<PredictionFormState>(() => formFromSearch(new URLSearchParams(location.search), processes));
   const [energyNote, setEnergyNote] = useState<string | null>(null);
@@ -261,6 +270,7 @@ export default function Predictions() {
             </a>
           </div>
         ) : null}
+        {response && current ? <AddToFigure figures={figures} layer={predictionLayerOf(form, info, built.body)} /> : null}
         <div className="border-t border-rule pt-3">
           <h2 className="mb-2 text-lg">Conventions</h2>
           <ConventionsList info={info} frame={response?.frame ?? form.frame} response={response && response.process === info.id ? response : null} />
@@ -268,6 +278,41 @@ export default function Predictions() {
         {response && current && response.values.length > 1 ? <ValuesTable response={response} /> : null}
       </section>
     </div>
+  );
+}
+
+type FigureChoice = { id: string; title: string; manuscriptId: string; manuscriptTitle: string };
+
+/** Adds the shown prediction as a layer of a chosen figure's draft (figures of manuscripts the user is an author of). */
+function AddToFigure({ figures, layer }: { figures: FigureChoice[]; layer: Record<string, unknown> | null }) {
+  const fetcher = useFetcher<typeof action>();
+  const id = useId();
+  if (layer === null) return null;
+  if (figures.length === 0) {
+    return <p className="text-sm text-ink-soft">To add this curve to a figure, start a figure in a manuscript you are an author of.</p>;
+  }
+  const result = fetcher.data;
+  return (
+    <fetcher.Form method="post" className="flex flex-wrap items-end gap-3 border-t border-rule pt-3 text-sm" aria-label="Add to a figure">
+      <input type="hidden" name="layer" value={JSON.stringify(layer)} />
+      <div className="flex min-w-64 flex-1 flex-col gap-1">
+        <label htmlFor={id} className="font-medium">Add this prediction to a figure</label>
+        <select id={id} name="figureId" className="border border-rule-strong bg-sheet px-2 py-1.5">
+          {figures.map((f) => <option key={f.id} value={f.id}>{f.title} — {f.manuscriptTitle}</option>)}
+        </select>
+      </div>
+      <button type="submit" className="border border-ink px-3.5 py-1.5 font-medium hover:bg-ink hover:text-sheet" disabled={fetcher.state !== "idle"}>
+        {fetcher.state === "idle" ? "Add to the figure's draft" : "Adding…"}
+      </button>
+      <p className="w-full text-ink-soft">The figure draws it on its own axes, at this process, energy, masses, α and form factor; it becomes the draft's next revision.</p>
+      {result ? (
+        result.ok ? (
+          <p role="status" className="w-full text-ok">Added to “{result.figureTitle}” as draft revision {result.draftRevision}. <a className="underline" href={result.figureUrl}>Open the figure</a></p>
+        ) : (
+          <p role="alert" className="w-full text-madder">{result.message}</p>
+        )
+      ) : null}
+    </fetcher.Form>
   );
 }
 

@@ -239,4 +239,28 @@ describe("the Predictions page", () => {
     await page.waitForURL(/\/sign-in\?redirectTo=%2Fpredictions/);
     await page.close();
   });
+
+  it("adds the shown prediction to a figure's draft the user can edit", async () => {
+    await browser.context.clearCookies();
+    const page = await browser.context.newPage();
+    const errors = collectConsoleErrors(page);
+    await signIn(page);
+    // A figure of its own in the demo manuscript, so that other tests' figures stay as they are.
+    const title = `Predictions page figure ${Date.now()}`;
+    const figure = await page.evaluate(async (title) => {
+      const list = (await (await fetch("/api/v1/manuscripts")).json()) as { manuscripts: { id: string }[] };
+      const res = await fetch(`/api/v1/manuscripts/${list.manuscripts[0].id}/figures`, { method: "POST", headers: { "content-type": "application/json" }, body: JSON.stringify({ title }) });
+      return ((await res.json()) as { figure: { id: string } }).figure.id;
+    }, title);
+    await page.goto(`${testEnv.appUrl}/predictions?process=compton&energy=0.002`);
+    await settledHash(page);
+    await page.getByLabel("Add this prediction to a figure").selectOption(figure);
+    await page.getByRole("button", { name: "Add to the figure's draft" }).click();
+    await page.getByRole("status").getByText(`Added to “${title}”`).waitFor();
+    const draft = await page.evaluate(async (id) => (await (await fetch(`/api/v1/figures/${id}/draft`)).json()) as { model: { panels: { layers: Record<string, unknown>[] }[] } }, figure);
+    const layers = draft.model.panels[0].layers.filter((l) => l.kind === "prediction");
+    expect(layers.at(-1)).toMatchObject({ process: "compton", energy: { kind: "kinetic", value: 0.002, unit: "GeV" } });
+    expect(errors).toEqual([]);
+    await page.close();
+  });
 });
