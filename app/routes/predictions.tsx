@@ -340,7 +340,7 @@ function RangeInputs({ inputs, slot, message }: { inputs: RangeInput[]; slot: Er
               <label htmlFor={`${id}-${input.name}`} className="text-sm font-medium text-ink">{input.label}</label>
               <input id={`${id}-${input.name}`} name={input.name} value={input.value} onChange={input.onChange} inputMode={input.name === "count" ? "numeric" : "decimal"}
                 aria-invalid={bad ? true : undefined} aria-describedby={bad ? `${id}-error` : undefined}
-                className={`min-w-0 border bg-sheet px-2.5 py-1.5 text-ink outline-none focus:border-ink ${bad ? "border-madder" : "border-rule-strong"}`} />
+                className={`min-w-0 border bg-sheet px-2.5 py-1.5 text-ink focus:border-ink ${bad ? "border-madder" : "border-rule-strong"}`} />
             </div>
           );
         })}
