@@ -38,17 +38,17 @@ async function signIn(page: Page) {
 }
 
 const hashOf = async (page: Page) => {
-  const label = await page.getByTestId("parameters-hash").getByRole("button").getAttribute("aria-label");
-  const hash = /^fingerprint ([0-9a-f]{64})$/.exec(label ?? "")?.[1];
-  if (!hash) throw new Error(`no parameters fingerprint on the page (aria-label ${label})`);
+  const label = await page.getByTestId("parameters-hash").getByRole("button").getAttribute("data-fingerprint");
+  const hash = /^([0-9a-f]{64})$/.exec(label ?? "")?.[1];
+  if (!hash) throw new Error(`no parameters fingerprint on the page (data-fingerprint ${label})`);
   return hash;
 };
 
 async function nextHash(page: Page, previous: string): Promise<string> {
   await page.waitForFunction(
     (prev) => {
-      const label = document.querySelector('[data-testid="parameters-hash"] button')?.getAttribute("aria-label") ?? "";
-      return label.startsWith("fingerprint ") && !label.endsWith(prev);
+      const label = document.querySelector('[data-testid="parameters-hash"] button')?.getAttribute("data-fingerprint") ?? "";
+      return label.length === 64 && label !== prev;
     },
     previous,
     { timeout: 10_000 },
