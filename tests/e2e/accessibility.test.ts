@@ -78,4 +78,26 @@ describe("accessibility of every page, as each role", () => {
       await page.close();
     }, 180_000);
   }
+
+  it("gives the site admin a landing page that says what to do, and mail links that can be followed", async () => {
+    await browser.context.clearCookies();
+    const page = await browser.context.newPage();
+    // A message with a link in it: a reset link for the demo co-author (the reset is never used).
+    await page.goto(`${testEnv.appUrl}/forgot-password`);
+    await page.getByLabel("E-mail address").fill(DEMO.coauthor);
+    await page.getByRole("button").last().click();
+    await page.waitForLoadState("networkidle");
+    await signIn(page, DEMO.admin);
+    await page.getByTestId("admin-landing").getByRole("link", { name: "Accounts" }).waitFor();
+    await page.goto(`${testEnv.appUrl}/admin/accounts`);
+    await expect(page.getByText("(demo) (demo)").count()).resolves.toBe(0);
+    await page.goto(`${testEnv.appUrl}/admin/mail`);
+    // Every address written in a captured message is a link to itself.
+    const texts = await page.locator("pre").allTextContents();
+    const written = texts.join("\n").match(/https?:\/\/[^\s<>"]+/g) ?? [];
+    const linked = await page.locator("pre a").evaluateAll((as) => as.map((a) => a.getAttribute("href")));
+    expect(written.length).toBeGreaterThan(0);
+    expect(linked).toEqual(written);
+    await page.close();
+  });
 });
