@@ -30,8 +30,9 @@ export function Layout({ children }: { children: React.ReactNode }) {
         <Links />
       </head>
       <body className="min-h-screen bg-paper text-ink antialiased">
+        <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:left-4 focus:top-2 focus:z-50 focus:bg-sheet focus:px-3 focus:py-2">Skip to the content</a>
         <SiteHeader user={data?.user ?? null} unread={data?.unread ?? 0} />
-        <main className="mx-auto max-w-6xl px-6 pb-16 pt-6">{children}</main>
+        <main id="main" tabIndex={-1} className="mx-auto max-w-6xl px-6 pb-16 pt-6">{children}</main>
         <ScrollRestoration nonce={nonce} />
         <Scripts nonce={nonce} />
       </body>

@@ -1,4 +1,4 @@
-import { useState } from "react";
+import { useId, useState } from "react";
 import { Form } from "react-router";
 import type { ColumnMapping } from "~/datasets/column-mapping";
 import type { MappingGuess } from "~/datasets/guess-mapping";
@@ -13,7 +13,7 @@ function errDefaults(e: ColumnMapping["stat"] | undefined): { kind: ErrKind; sym
 }
 
 /** The mapping step: the first rows of the file, and which column holds which quantity. */
-export function MappingEditor({ pending, fileName, preview, saved, busy }: { pending: string; fileName: string; preview: Preview; saved: ColumnMapping | null; busy: boolean }) {
+export function MappingEditor({ pending, fileName, preview, saved, busy, errors = {} }: { pending: string; fileName: string; preview: Preview; saved: ColumnMapping | null; busy: boolean; errors?: Record<string, string> }) {
   const start: Partial<ColumnMapping> = saved && saved.x && preview.headers.includes(saved.x) ? saved : preview.guess.mapping;
   const [stat, setStat] = useState<ErrKind>(errDefaults(start.stat).kind);
   const [syst, setSyst] = useState<ErrKind>(errDefaults(start.syst).kind);
@@ -38,38 +38,42 @@ export function MappingEditor({ pending, fileName, preview, saved, busy }: { pen
       <Form method="post" className="mt-4 grid grid-cols-3 gap-4 text-sm max-lg:grid-cols-2">
         <input type="hidden" name="pending" value={pending} />
         <input type="hidden" name="fileName" value={fileName} />
-        <Column label="x (required)" name="x" headers={preview.headers} value={start.x} />
-        <Column label="bin low edge" name="xLow" headers={preview.headers} value={start.xLow} optional />
-        <Column label="bin high edge" name="xHigh" headers={preview.headers} value={start.xHigh} optional />
-        <Column label="y (required)" name="y" headers={preview.headers} value={start.y} />
-        <ErrorColumns label="statistical error" prefix="stat" kind={stat} setKind={setStat} headers={preview.headers} d={s} />
-        <ErrorColumns label="systematic error" prefix="syst" kind={syst} setKind={setSyst} headers={preview.headers} d={y} />
+        <Column label="x (required)" name="x" headers={preview.headers} value={start.x} error={errors["x"]} />
+        <Column label="bin low edge" name="xLow" headers={preview.headers} value={start.xLow} error={errors["xLow"]} optional />
+        <Column label="bin high edge" name="xHigh" headers={preview.headers} value={start.xHigh} error={errors["xHigh"]} optional />
+        <Column label="y (required)" name="y" headers={preview.headers} value={start.y} error={errors["y"]} />
+        <ErrorColumns label="statistical error" prefix="stat" kind={stat} setKind={setStat} headers={preview.headers} d={s} errors={errors} />
+        <ErrorColumns label="systematic error" prefix="syst" kind={syst} setKind={setSyst} headers={preview.headers} d={y} errors={errors} />
         <div className="col-span-full"><Button kind="primary" type="submit" disabled={busy}>{busy ? "Checking every row…" : "Check and store as a revision"}</Button></div>
       </Form>
     </>
   );
 }
 
-function Column({ label, name, headers, value, optional }: { label: string; name: string; headers: string[]; value?: string; optional?: boolean }) {
+function Column({ label, name, headers, value, optional, error }: { label: string; name: string; headers: string[]; value?: string; optional?: boolean; error?: string }) {
+  const id = useId();
   return (
-    <label className="flex flex-col gap-1"><span className="font-medium">{label}</span>
-      <select name={name} defaultValue={value ?? ""} className="border border-rule-strong bg-paper px-2 py-1">
+    <div className="flex flex-col gap-1">
+      <label htmlFor={id} className="font-medium">{label}</label>
+      <select id={id} name={name} defaultValue={value ?? ""} aria-invalid={error ? true : undefined} aria-describedby={error ? `${id}-error` : undefined}
+        className={`border bg-paper px-2 py-1 ${error ? "border-madder" : "border-rule-strong"}`}>
         <option value="">{optional ? "— none" : "— choose a column"}</option>
         {headers.map((h, i) => <option key={i} value={h}>{i + 1}: {h}</option>)}
       </select>
-    </label>
+      {error ? <p id={`${id}-error`} role="alert" className="text-madder">{error.charAt(0).toUpperCase() + error.slice(1)}.</p> : null}
+    </div>
   );
 }
 
-function ErrorColumns({ label, prefix, kind, setKind, headers, d }: { label: string; prefix: string; kind: ErrKind; setKind: (k: ErrKind) => void; headers: string[]; d: { sym: string; minus: string; plus: string } }) {
+function ErrorColumns({ label, prefix, kind, setKind, headers, d, errors }: { label: string; prefix: string; kind: ErrKind; setKind: (k: ErrKind) => void; headers: string[]; d: { sym: string; minus: string; plus: string }; errors: Record<string, string> }) {
   return (
     <fieldset className="flex flex-col gap-1">
       <legend className="font-medium">{label}</legend>
       <select name={`${prefix}Kind`} value={kind} onChange={(e) => setKind(e.target.value as ErrKind)} className="border border-rule-strong bg-paper px-2 py-1" aria-label={`${label}: kind`}>
         <option value="none">none</option><option value="symmetric">symmetric ±</option><option value="asymmetric">asymmetric − / +</option>
       </select>
-      {kind === "symmetric" ? <Column label="column" name={prefix} headers={headers} value={d.sym} /> : null}
-      {kind === "asymmetric" ? <><Column label="− column" name={`${prefix}Minus`} headers={headers} value={d.minus} /><Column label="+ column" name={`${prefix}Plus`} headers={headers} value={d.plus} /></> : null}
+      {kind === "symmetric" ? <Column label="column" name={prefix} headers={headers} value={d.sym} error={errors[`${prefix}.column`]} /> : null}
+      {kind === "asymmetric" ? <><Column label="− column" name={`${prefix}Minus`} headers={headers} value={d.minus} error={errors[`${prefix}.minus`]} /><Column label="+ column" name={`${prefix}Plus`} headers={headers} value={d.plus} error={errors[`${prefix}.plus`]} /></> : null}
     </fieldset>
   );
 }

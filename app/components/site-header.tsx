@@ -23,8 +23,8 @@ export function SiteHeader({ user, unread = 0 }: { user: SessionUser | null; unr
               </>
             ) : null}
             <span className="flex-1" />
-            <NavLink to="/inbox" className={link} data-testid="inbox-link" aria-label={unread > 0 ? `Inbox, ${unread} unread` : "Inbox"}>
-              Inbox{unread > 0 ? <span className="ml-1.5 inline-block min-w-5 rounded-full bg-ink px-1.5 text-center font-mono text-xs text-sheet" data-testid="inbox-count">{unread}</span> : null}
+            <NavLink to="/inbox" className={link} data-testid="inbox-link">
+              Inbox{unread > 0 ? <><span className="ml-1.5 inline-block min-w-5 rounded-full bg-ink px-1.5 text-center font-mono text-xs text-sheet" data-testid="inbox-count">{unread}</span><span className="sr-only"> unread</span></> : null}
             </NavLink>
             <NavLink to="/account" className={link}>{user.name}</NavLink>
             <Form method="post" action="/sign-out">

@@ -1,12 +1,19 @@
 import { z } from "zod";
 
 /** A column is referenced by its header name, so a saved mapping survives reordered columns. */
-const columnName = z.string().trim().min(1, "choose a column");
+const columnName = z
+  .string({ error: (issue) => (issue.input === undefined ? "choose a column" : "name the column by its header, as text") })
+  .trim()
+  .min(1, "choose a column");
 
-export const errorMappingSchema = z.discriminatedUnion("kind", [
+export const errorMappingSchema = z.discriminatedUnion(
+  "kind",
+  [
   z.object({ kind: z.literal("symmetric"), column: columnName }),
   z.object({ kind: z.literal("asymmetric"), minus: columnName, plus: columnName }),
-]);
+  ],
+  { error: 'give its kind: { "kind": "symmetric", "column": … } or { "kind": "asymmetric", "minus": …, "plus": … }' },
+);
 export type ErrorMapping = z.infer<typeof errorMappingSchema>;
 
 /**
@@ -15,14 +22,17 @@ export type ErrorMapping = z.infer<typeof errorMappingSchema>;
  * a minus and a plus column, both non-negative.
  */
 export const columnMappingSchema = z
-  .object({
+  .object(
+    {
     x: columnName,
     xLow: columnName.optional(),
     xHigh: columnName.optional(),
     y: columnName,
     stat: errorMappingSchema.optional(),
     syst: errorMappingSchema.optional(),
-  })
+    },
+    { error: 'a mapping is an object naming the columns, such as { "x": "theta_cm", "y": "dsdo_ub_sr" }' },
+  )
   .superRefine((m, ctx) => {
     if ((m.xLow === undefined) !== (m.xHigh === undefined)) {
       ctx.addIssue({
@@ -63,4 +73,15 @@ export function mappedColumnEntries(m: ColumnMapping): [string, string][] {
     else entries.push([`${key}.minus`, e.minus], [`${key}.plus`, e.plus]);
   }
   return entries;
+}
+
+const FIELD_WORDS: Record<string, string> = {
+  x: "x", xLow: "the bin's low edge", xHigh: "the bin's high edge", y: "y",
+  stat: "the statistical error", "stat.kind": "the statistical error", "syst.kind": "the systematic error", "stat.column": "the statistical error", "stat.minus": "the statistical error's − column", "stat.plus": "the statistical error's + column",
+  syst: "the systematic error", "syst.column": "the systematic error", "syst.minus": "the systematic error's − column", "syst.plus": "the systematic error's + column",
+};
+
+/** A mapping field's path (`x`, `stat.minus`) as a reader names it ("the statistical error's − column"). */
+export function mappingFieldWords(path: string): string {
+  return FIELD_WORDS[path] ?? path;
 }

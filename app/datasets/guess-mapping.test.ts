@@ -18,6 +18,15 @@ describe("guessMapping", () => {
     expect(g.ambiguous).toEqual([]);
   });
 
+  it("recognises y headers abbreviated with a unit after them", () => {
+    for (const y of ["dsdo_ub_sr", "dsdomega", "ds_dcos", "dsdt", "xsec_nb", "sigma_nb", "dxs"]) {
+      expect(guessMapping(["theta_cm", y, "stat"]).mapping.y, y).toBe(y);
+    }
+    // …without taking an error column or an unrelated name for y.
+    expect(guessMapping(["theta_cm", "sigma_stat", "dsdo"]).mapping.y).toBe("dsdo");
+    expect(guessMapping(["theta_cm", "design", "stat"]).mapping.y).toBeUndefined();
+  });
+
   it("reads + and - suffixes and short bin names", () => {
     const g = guessMapping(["cos", "xlo", "xhi", "xsec", "stat-", "stat+", "syst"]);
     expect(g.mapping.stat).toEqual({ kind: "asymmetric", minus: "stat-", plus: "stat+" });

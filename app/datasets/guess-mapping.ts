@@ -49,7 +49,9 @@ const STAT = new RegExp(`^(?:d_?|err_?|error_?|unc_?|sigma_?)?stat(?:istical)?(?
 const SYST = new RegExp(`^(?:d_?|err_?|error_?|unc_?|sigma_?)?sys(?:t|tematic)?(?:_?(?:err|error|unc|uncertainty))?${ERROR_SIDE}$`);
 const BIN_LOW = /^(?:x|theta|theta_cm|theta_lab|cos|cos_?theta|costh|t|sqrt_?s|e|e_?beam|bin)?_?(?:lo|low|min|lower|from)$/;
 const BIN_HIGH = /^(?:x|theta|theta_cm|theta_lab|cos|cos_?theta|costh|t|sqrt_?s|e|e_?beam|bin)?_?(?:hi|high|max|upper|to)$/;
-const Y = /^(?:y|dsig\w*|d_sigma\w*|ds_d\w*|xsec\w*|xs|cross_?section\w*|sigma|sig)$/;
+// dσ/dΩ and friends as people abbreviate them in headers, with or without a unit after:
+// dsig_domega, d_sigma, ds_dcos, dsdo_ub_sr, dsdt, dxs, xsec_nb, sigma_nb.
+const Y = /^(?:y|dsig\w*|d_sigma\w*|ds_?d\w*|dxs\w*|xsec\w*|xs(?:_(?:mb|ub|nb|pb|fb)\w*)?|cross_?section\w*|sigma(?:_(?:mb|ub|nb|pb|fb)\w*)?|sig)$/;
 
 const X_KIND_OF: [RegExp, XKind | null][] = [
   [/^(?:theta|th|angle)_?(?:c_?m|cms|star)(?:_?deg)?$/, "theta_cm_deg"],

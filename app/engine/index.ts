@@ -18,3 +18,4 @@ export { uncertaintyTowards, type MeasuredPoint, type Uncertainty } from "./stat
 export { angleConverter, type AngleConverter, type AngleCoordinate, type DifferentialCoordinate, type ReactionAtEnergy } from "./angle-conversion";
 export type { DifferentialObservable } from "./observables";
 export type { EnergyKind } from "./mandelstam-s-from-energy";
+export { equivalentEnergy, type EnergyOfProcess } from "./equivalent-energy";

@@ -147,6 +147,8 @@ describe("runPrediction: bad input gets a typed error naming the field", () => {
     ["scan below threshold", { process: "muon-pair", frame: "cm", observable: "sigma", scan: { sqrtS: [1, 0.2] }, unit: "nb" }, "below_threshold", "scan.sqrtS[1]"],
     ["not an object", [1, 2], "invalid_request", ""],
     ["α out of range", { ...EXAMPLE_REQUEST, alpha: 0 }, "invalid_alpha", "alpha"],
+    ["a 10³⁰⁰ GeV beam blamed on the energy, not on an angle", { process: "compton", frame: "lab", energy: { kinetic: 1e300 }, thetaDeg: [30, 60] }, "energy_too_high", "energy.kinetic"],
+    ["a scan point above the Planck energy", { process: "bhabha", frame: "cm", scan: { sqrtS: [1, 2e19] }, thetaDeg: [90] }, "energy_too_high", "scan.sqrtS[1]"],
   ])("%s", (_label, request, code, field) => {
     const e = errorOf(JSON.parse(JSON.stringify(request, (_k, v) => (typeof v === "number" && Number.isNaN(v) ? "__NaN__" : v)), (_k, v) => (v === "__NaN__" ? Number.NaN : v)));
     expect({ code: e.code, field: e.field }).toEqual({ code, field });

@@ -40,6 +40,7 @@ export interface PredictionResponse {
 
 const ENERGY_FACTOR: Record<EnergyUnit, number> = { GeV: 1, MeV: 1e-3, keV: 1e-6 };
 const DEG = Math.PI / 180;
+const PLANCK_ENERGY_GEV = 1.22089e19;
 const round = (x: number) => Number(x.toPrecision(4));
 
 /** A process at one energy, with every physics check on that energy done. */
@@ -56,6 +57,17 @@ function kernelAt(def: ProcessDefinition, p: PredictionParameters, kind: EnergyK
       field,
       `√s = ${round(Math.sqrt(s))} GeV is ${atBinEdge ? "below" : "at or below"} the ${pair} threshold ${round(Math.sqrt(threshold))} GeV` +
         (kind === "sqrtS" ? "" : ` (${kind === "beam" ? "total beam energy" : "beam kinetic energy"} ${valueGeV} GeV on the ${info.targetParticle} at rest)`),
+    );
+  }
+  // Above the Planck energy (1.22 × 10¹⁹ GeV, Review of Particle Physics, "Physical constants")
+  // a Born QED curve means nothing, and much higher up s², s³ overflow double precision: the
+  // energy is refused by name rather than a non-finite value being blamed on an angle.
+  if (!(s <= PLANCK_ENERGY_GEV ** 2)) {
+    throw new EngineInputError(
+      "energy_too_high",
+      field,
+      (kind === "sqrtS" ? `√s = ${round(valueGeV)} GeV` : `the ${kind === "beam" ? "total beam energy" : "beam kinetic energy"} ${round(valueGeV)} GeV on the ${info.targetParticle} at rest`) +
+        " is above the Planck energy 1.22 × 10¹⁹ GeV, where a tree-level prediction has no meaning",
     );
   }
   const ff = p.formFactor === null ? null : formFactorSquared(p.formFactor);

@@ -72,6 +72,9 @@ export default function Account() {
       <table className="mt-6 w-full text-sm">
         <thead className="border-b border-rule text-left text-ink-soft"><tr><th className="py-2 font-medium">Name</th><th className="font-medium">Begins with</th><th className="font-medium">Created</th><th className="font-medium">Last used</th><th /></tr></thead>
         <tbody className="divide-y divide-rule">
+          {tokens.length === 0 ? (
+            <tr><td colSpan={5} className="py-3 text-ink-soft">No tokens yet. A token lets a script call the JSON API as you; name it after the script that will use it.</td></tr>
+          ) : null}
           {tokens.map((t) => (
             <tr key={t.id} className={t.revoked_at ? "text-ink-faint" : ""}>
               <td className="py-2">{t.name}</td>

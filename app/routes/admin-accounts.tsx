@@ -49,7 +49,7 @@ export default function AdminAccounts() {
         <tbody className="divide-y divide-rule">
           {accounts.map((a) => (
             <tr key={a.id}>
-              <td className="py-2">{a.name}{a.is_demo ? <span className="text-ink-faint"> (demo)</span> : null}</td>
+              <td className="py-2">{a.name}{a.is_demo && !/\(demo\)$/.test(a.name) ? <span className="text-ink-faint"> (demo)</span> : null}</td>
               <td>{a.email}</td>
               <td className="whitespace-nowrap"><Shape name={({ active: "disc", pending: "dotted-ring", disabled: "cross" } as const)[a.status]} /> {{ active: "active", pending: "awaiting confirmation", disabled: "disabled" }[a.status]}</td>
               <td>{a.site_role === "admin" ? "site admin" : "member"}</td>

@@ -32,7 +32,7 @@ export default function AdminMail() {
           <li key={m.id} className="border border-rule bg-sheet p-4">
             <p className="text-sm text-ink-soft"><span className="num font-mono">{m.receivedAt.replace("T", " ").slice(0, 19)}</span> · to {m.to.join(", ")}</p>
             <h2 className="mt-1 font-sans text-base font-medium">{m.subject}</h2>
-            <pre className="mt-2 whitespace-pre-wrap font-sans text-sm">{m.text}</pre>
+            <pre className="mt-2 whitespace-pre-wrap font-sans text-sm">{withLinks(m.text)}</pre>
           </li>
         ))}
       </ul>
@@ -41,3 +41,10 @@ export default function AdminMail() {
 }
 
 export const meta: Route.MetaFunction = () => [{ title: "Mail · Steradian" }];
+
+/** The message's text with each http(s) address as a link, so that an invitation or a reset can be followed from here. */
+function withLinks(text: string): React.ReactNode[] {
+  return text.split(/(https?:\/\/[^\s<>"]+)/g).map((part, i) =>
+    i % 2 === 1 ? <a key={i} href={part} className="break-all underline underline-offset-2">{part}</a> : part,
+  );
+}

@@ -18,7 +18,8 @@ import { ProblemList } from "~/components/problem-list";
 import { describeQuantity } from "~/components/quantity-labels";
 import { Button } from "~/components/ui/button";
 import { DemoBadge, Notice } from "~/components/ui/notice";
-import { columnMappingSchema } from "~/datasets/column-mapping";
+import { columnMappingSchema, mappingFieldWords } from "~/datasets/column-mapping";
+import { equivalentEnergy, PROCESSES } from "~/engine";
 import { quantitySchema } from "~/datasets/quantity";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
@@ -105,8 +106,8 @@ export default function DatasetPage() {
       </div>
       <p className="mt-1 text-sm text-ink-soft">
         {describeQuantity(dataset.quantity)}
-        {dataset.process ? ` · process ${dataset.process}` : ""}
-        {dataset.beam_energy_gev ? ` · beam ${dataset.beam_energy_gev} GeV` : ""}
+        {dataset.process ? ` · ${reactionOf(dataset.process)}` : ""}
+        {dataset.beam_energy_gev ? ` · ${beamEnergyText(dataset.process, Number(dataset.beam_energy_gev))}` : ""}
         {dataset.target ? ` · target ${dataset.target}` : ""}
       </p>
       {dataset.description ? <p className="mt-2 max-w-3xl text-sm">{dataset.description}</p> : null}
@@ -114,7 +115,7 @@ export default function DatasetPage() {
       <div className="mt-4 space-y-3">
         {uploaded && !result ? <Notice tone="ok">Stored as revision <strong className="font-mono">{uploaded}</strong>.</Notice> : null}
         {result?.kind === "identical" ? <Notice>The content is identical to <strong className="font-mono">r{result.number}</strong>: no new revision was created.</Notice> : null}
-        {result?.kind === "error" ? <Notice tone="caution">{result.message}{result.fieldErrors ? <ul className="mt-1 list-disc pl-5">{Object.entries(result.fieldErrors).map(([k, v]) => <li key={k}><span className="font-mono">{k}</span>: {v}</li>)}</ul> : null}</Notice> : null}
+        {result?.kind === "error" ? <Notice tone="caution">{result.message}{result.fieldErrors ? <ul className="mt-1 list-disc pl-5">{Object.entries(result.fieldErrors).map(([k, v]) => <li key={k}>{k === "file" ? "file" : mappingFieldWords(k)}: {v}</li>)}</ul> : null}</Notice> : null}
         {result?.kind === "problems" ? <ProblemList problems={result.problems} problemCount={result.problemCount} /> : null}
       </div>
 
@@ -124,7 +125,7 @@ export default function DatasetPage() {
           {mappingStep.gone ? <p className="mt-2">This upload is no longer waiting. Upload the file again.</p>
             : mappingStep.preview && !mappingStep.preview.ok ? <div className="mt-3"><ProblemList problems={mappingStep.preview.problems} problemCount={mappingStep.preview.problems.length} /></div>
             : mappingStep.preview?.ok ? (
-              <MappingEditor pending={mappingStep.pending} fileName={mappingStep.fileName} preview={mappingStep.preview} saved={savedMapping} busy={busy} />
+              <MappingEditor pending={mappingStep.pending} fileName={mappingStep.fileName} preview={mappingStep.preview} saved={savedMapping} busy={busy} errors={result?.kind === "error" ? result.fieldErrors : undefined} />
             ) : null}
         </section>
       ) : null}
@@ -162,7 +163,8 @@ export default function DatasetPage() {
           <aside aria-labelledby="up-h" className="border-l border-rule pl-6 max-lg:border-l-0 max-lg:pl-0">
             <h3 id="up-h" className="text-xl">Upload a revision</h3>
             <p className="mt-1 text-sm text-ink-soft">CSV in UTF-8 (with or without BOM), separated by commas, semicolons or tabs, with a header line. Up to {(maxBytes / 2 ** 20).toFixed(0)} MiB.</p>
-            <Form method="post" encType="multipart/form-data" className="mt-3 flex flex-col gap-3">
+            {/* Keyed by the number of revisions: after a stored revision the file input starts empty. */}
+            <Form key={revisions.length} method="post" encType="multipart/form-data" className="mt-3 flex flex-col gap-3">
               <label className="flex flex-col gap-1 text-sm font-medium">CSV file
                 <input type="file" name="file" accept=".csv,.tsv,.txt,text/csv" required className="text-sm font-normal" />
               </label>
@@ -172,10 +174,32 @@ export default function DatasetPage() {
               <Button kind="primary" type="submit" disabled={busy}>{busy ? "Checking…" : "Upload"}</Button>
             </Form>
           </aside>
-        ) : null}
+        ) : (
+          <aside aria-labelledby="ro-h" className="border-l border-rule pl-6 text-sm max-lg:border-l-0 max-lg:pl-0">
+            <h3 id="ro-h" className="text-xl">Read only for you</h3>
+            <p className="mt-1 text-ink-soft" data-testid="read-only-reason">
+              You are {role === "observer" ? "an observer" : role === "coauthor" ? "a co-author" : `a ${role}`} of this manuscript: you can read every revision and compare them
+              {role === "coauthor" ? ", and you review the figures made from them" : ""}. New revisions are uploaded by contributors and the corresponding author; ask one of them if the data must change.
+            </p>
+          </aside>
+        )}
       </div>
     </>
   );
+}
+
+/** A process id as its reaction in physics notation (e⁺e⁻ → γγ), as the engine's registry writes it. */
+function reactionOf(processId: string): string {
+  return PROCESSES.find((p) => p.id === processId)?.reaction ?? processId;
+}
+
+/** The dataset's total beam energy named, to five significant digits, with the kinetic energy where the process has a beam at rest-target. */
+function beamEnergyText(processId: string | null, beamGeV: number): string {
+  const total = `total beam energy ${Number(beamGeV.toPrecision(5))} GeV`;
+  const info = PROCESSES.find((p) => p.id === processId);
+  if (!info || info.needsSqrtS || !info.frames.includes("lab")) return total;
+  const kinetic = equivalentEnergy({ process: info.id, kind: "beam", valueGeV: beamGeV, mass: null, finalMass: null }, { process: info.id, kind: "kinetic", mass: null, finalMass: null });
+  return kinetic === null ? total : `${total} (beam kinetic energy T = ${Number(kinetic.toPrecision(5))} GeV)`;
 }
 
 export const meta: Route.MetaFunction = ({ data }) => [{ title: `${data?.dataset.name ?? "Dataset"} · Steradian` }];

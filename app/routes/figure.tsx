@@ -26,6 +26,7 @@ import { findPreset, DEFAULT_PRESET_ID, SIZE_PRESETS } from "~/figures/journal-p
 import { colourFor, markerFor } from "~/figures/palette";
 import { predictionLayerFor } from "~/figures/starter-model";
 import { PT_PER_MM } from "~/figures/build-figure";
+import { svgForPage } from "~/figures/svg-for-page";
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const page = await loadFigurePage(request, params);
@@ -341,7 +342,7 @@ export default function FigurePage() {
             <TrueSizeView svg={preview.svg} widthMm={preset.widthMm} heightMm={(preview.svg.match(/viewBox="0 0 [\d.]+ ([\d.]+)"/)?.[1] ? Number(preview.svg.match(/viewBox="0 0 [\d.]+ ([\d.]+)"/)![1]) : 0) / PT_PER_MM} smallestTextPt={preview.smallestTextPt} thinnestLinePt={preview.thinnestLinePt} />
           ) : (
             <div className="border border-rule bg-white p-2 [&>svg]:h-auto [&>svg]:w-full" data-testid="figure-preview" data-rendered-key={preview.renderedKey ?? ""} data-render-ms={preview.renderMs ?? ""} data-draft-revision={base}
-              dangerouslySetInnerHTML={{ __html: preview.svg }} />
+              dangerouslySetInnerHTML={{ __html: svgForPage(preview.svg) }} />
           )}
           {preview.svg !== null ? <PreviewDownload svg={preview.svg} title={title || figure.title} /> : null}
           {preview.renderMs !== null ? <p className="font-mono text-xs text-ink-faint">drawn {preview.renderMs} ms after the edit</p> : null}

@@ -26,6 +26,9 @@ export default function Home() {
         <Link to="/sign-up" className="border border-rule-strong px-4 py-2 hover:border-ink">Create an account</Link>
         <Link to="/predictions" className="px-4 py-2 underline underline-offset-4">Try the predictions</Link>
       </p>
+      <p className="mt-2 text-sm text-ink-soft">
+        The predictions are for signed-in users: “Try the predictions” asks you to sign in (or to create an account) first, then opens them.
+      </p>
     </article>
   );
 }

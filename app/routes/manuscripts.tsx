@@ -12,7 +12,7 @@ import { RoleTag } from "~/components/role-tag";
 
 export async function loader({ request }: Route.LoaderArgs) {
   const user = await requireUser(request);
-  return { manuscripts: await listManuscriptsForUser(db, user.id) };
+  return { manuscripts: await listManuscriptsForUser(db, user.id), isAdmin: user.siteRole === "admin" };
 }
 
 export async function action({ request, context }: Route.ActionArgs) {
@@ -24,14 +24,21 @@ export async function action({ request, context }: Route.ActionArgs) {
 }
 
 export default function Manuscripts() {
-  const { manuscripts } = useLoaderData<typeof loader>();
+  const { manuscripts, isAdmin } = useLoaderData<typeof loader>();
   const result = useActionData<typeof action>();
   return (
     <div className="grid grid-cols-[1fr_18rem] gap-10 max-lg:grid-cols-1">
       <section aria-labelledby="ms-title">
         <h1 id="ms-title" className="text-3xl">Your manuscripts</h1>
         {manuscripts.length === 0 ? (
-          <p className="mt-6 text-ink-soft">No manuscripts yet. Start one on the right, or wait for an invitation from a co-author.</p>
+          isAdmin ? (
+            <div className="mt-6 max-w-xl text-ink-soft" data-testid="admin-landing">
+              <p>As the site admin you manage accounts and read the mail the site sends; manuscripts are their members' own, so none is listed here unless you are a member.</p>
+              <p className="mt-2"><Link className="text-ink underline underline-offset-4" to="/admin/accounts">Accounts</Link> — disable, re-enable, see who signed up. <Link className="text-ink underline underline-offset-4" to="/admin/mail">Mail</Link> — invitations, confirmations and reset links as sent.</p>
+            </div>
+          ) : (
+            <p className="mt-6 text-ink-soft">No manuscripts yet. Start one on the right, or wait for an invitation from a co-author.</p>
+          )
         ) : (
           <ul className="mt-6 divide-y divide-rule border-y border-rule">
             {manuscripts.map((m) => (

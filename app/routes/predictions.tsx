@@ -1,7 +1,10 @@
-import { useId, useMemo, useState } from "react";
-import { useLoaderData } from "react-router";
+import { useEffect, useId, useMemo, useState } from "react";
+import { useFetcher, useLoaderData, useLocation } from "react-router";
 import type { Route } from "./+types/predictions";
 import { requireUser } from "~/.server/platform/http/guards.server";
+import { clientIp } from "~/.server/platform/http/client-address.server";
+import { addPredictionToFigure, editableFigures } from "./predictions.server";
+import { predictionLayerOf } from "~/components/predictions/prediction-layer";
 import { PHYSICAL_CONSTANTS, PROCESSES, type Observable, type PredictionResponse } from "~/engine";
 import { PredictionChart } from "~/components/prediction-chart";
 import { Fingerprint } from "~/components/fingerprint";
@@ -9,19 +12,26 @@ import { Notice } from "~/components/ui/notice";
 import { Field, SelectField } from "~/components/ui/field";
 import { buildPredictionRequest, RANGE_FIELDS } from "~/components/predictions/build-prediction-request";
 import { ConventionsList } from "~/components/predictions/conventions-list";
-import { inputForError, type ErrorSlot } from "~/components/predictions/input-for-error";
+import { inFormWords, inputForError, type ErrorSlot } from "~/components/predictions/input-for-error";
 import { predictionCsv } from "~/components/predictions/prediction-csv";
 import {
-  initialFormState, withObservable, withProcess, withVariable,
-  type CurveVariable, type PredictionFormState,
+  ENERGY_NAMES, withEnergyUnit, withObservable, withProcess, withVariable,
+  type AxisScale, type CurveVariable, type EnergyUnit, type PredictionFormState,
 } from "~/components/predictions/prediction-form-state";
+import { formFromSearch, searchOfForm } from "~/components/predictions/prediction-url";
 import { unitChoices, unitLabel } from "~/components/predictions/unit-choices";
 import { useLivePrediction } from "~/components/predictions/use-live-prediction";
-import { OBSERVABLE_TITLE, predictionChartSpec, xTitleOf } from "~/figures/prediction-chart-spec";
+import { OBSERVABLE_TITLE, predictionChartSpec, xTitleOf, type ChartView } from "~/figures/prediction-chart-spec";
 
 export async function loader({ request }: Route.LoaderArgs) {
+  const user = await requireUser(request);
+  return { processes: PROCESSES, defaultAlpha: PHYSICAL_CONSTANTS.alpha, figures: await editableFigures(user.id) };
+}
+
+/** POST: adds the page's prediction to a figure's draft the user may edit. */
+export async function action({ request, context }: Route.ActionArgs) {
   await requireUser(request);
-  return { processes: PROCESSES, defaultAlpha: PHYSICAL_CONSTANTS.alpha };
+  return addPredictionToFigure(request, await request.formData(), clientIp(context));
 }
 
 const OBSERVABLES: { value: Observable; label: string }[] = [
@@ -30,21 +40,51 @@ const OBSERVABLES: { value: Observable; label: string }[] = [
   { value: "dsigma/dt", label: "dσ/dt" },
   { value: "sigma", label: "σ, total or in an acceptance" },
 ];
-const ENERGY_NAMES = { sqrtS: "√s", beam: "total beam energy", kinetic: "beam kinetic energy" } as const;
+
+/** The chart's view from the axis inputs: an end that is not a number is reported, not guessed. */
+function chartViewOf(f: PredictionFormState): { view: ChartView; errors: Partial<Record<"xMin" | "xMax" | "yMin" | "yMax", string>> } {
+  const errors: Partial<Record<"xMin" | "xMax" | "yMin" | "yMax", string>> = {};
+  const end = (key: "xMin" | "xMax" | "yMin" | "yMax"): number | null => {
+    const t = f[key].trim().replace(/\u2212/g, "-");
+    if (t === "") return null;
+    const v = Number(t);
+    if (Number.isFinite(v)) return v;
+    errors[key] = `Write a number here, or leave it empty to follow the curve (not “${f[key].trim()}”).`;
+    return null;
+  };
+  return { view: { xScale: f.xScale, yScale: f.yScale, x: [end("xMin"), end("xMax")], y: [end("yMin"), end("yMax")] }, errors };
+}
 
 export default function Predictions() {
-  const { processes, defaultAlpha } = useLoaderData<typeof loader>();
-  const [form, setForm] = useState<PredictionFormState>(() => initialFormState(processes[0]));
+  const { processes, defaultAlpha, figures } = useLoaderData<typeof loader>();
+  const location = useLocation();
+  const [form, setForm] = useState<PredictionFormState>(() => formFromSearch(new URLSearchParams(location.search), processes));
+  const [energyNote, setEnergyNote] = useState<string | null>(null);
   const info = processes.find((p) => p.id === form.process) ?? processes[0];
   const built = useMemo(() => buildPredictionRequest(form, info), [form, info]);
   const { result, problem, busy } = useLivePrediction(built.body, built.problem);
   const slot: ErrorSlot | null = problem ? (problem.field === undefined ? "general" : inputForError(problem.field, form)) : null;
-  const err = (s: ErrorSlot) => (slot === s ? problem!.message : undefined);
+  const problemText = problem ? inFormWords(problem.message, problem.field, built.body) : "";
+  const err = (s: ErrorSlot) => (slot === s ? problemText : undefined);
+  const { view, errors: viewErrors } = useMemo(() => chartViewOf(form), [form]);
+
+  // The form lives in the address: a reload or a shared link gives the same curve. replaceState
+  // keeps one history entry per visit, and React Router's own state in it is kept as it is.
+  useEffect(() => {
+    const search = `?${searchOfForm(form, processes).toString()}`;
+    if (window.location.search !== search) window.history.replaceState(window.history.state, "", `${window.location.pathname}${search}`);
+  }, [form, processes]);
 
   const set = <K extends keyof PredictionFormState>(k: K) => (e: React.ChangeEvent<HTMLInputElement | HTMLSelectElement>) => {
     const v = (e.target.type === "checkbox" ? (e.target as HTMLInputElement).checked : e.target.value) as PredictionFormState[K];
     setForm((f) => {
-      if (k === "process") return withProcess(f, processes.find((p) => p.id === v)!);
+      if (k === "process") {
+        const change = withProcess(f, processes.find((p) => p.id === v)!, info);
+        setEnergyNote(change.note);
+        return change.state;
+      }
+      if (k === "energy" || k === "energyKind" || k === "from" || k === "to") setEnergyNote(null);
+      if (k === "energyUnit") return withEnergyUnit(f, v as EnergyUnit);
       if (k === "observable") return withObservable(f, v as Observable);
       if (k === "variable") return withVariable(f, v as CurveVariable);
       return { ...f, [k]: v };
@@ -53,8 +93,12 @@ export default function Predictions() {
 
   const scan = form.variable === "energy";
   const differential = form.observable !== "sigma";
+  // A curve is the form's only when it answers exactly the request the form now builds; any
+  // other (an older answer while a new one is computed or refused) is shown as out of date and
+  // never offered for download.
+  const current = result !== null && problem === null && built.body !== null && JSON.stringify(result.request) === JSON.stringify(built.body);
   const response = result?.response ?? null;
-  const csv = useMemo(() => (result ? predictionCsv(result.response, result.request) : null), [result]);
+  const csv = useMemo(() => (result && current ? predictionCsv(result.response, result.request) : null), [result, current]);
 
   return (
     <div className="grid grid-cols-[22rem_1fr] gap-8 max-lg:grid-cols-1">
@@ -89,6 +133,7 @@ export default function Predictions() {
             <Field label="Energy" name="energy" value={form.energy} onChange={set("energy")} inputMode="decimal" error={err("energy")}
               hint={info.needsSqrtS ? "γγ has no target at rest: √s only." : form.energyKind === "sqrtS" ? undefined : `${info.beamParticle} beam on ${info.targetParticle} at rest.`} />
           )}
+          {energyNote ? <p className="border-l-2 border-warn pl-2 text-sm text-ink" role="status" data-testid="energy-note">{energyNote}</p> : null}
         </Group>
 
         <Group title="Masses and coupling">
@@ -120,7 +165,7 @@ export default function Predictions() {
                   { label: form.binned ? "bins" : "points", name: "count", value: form.count, onChange: set("count"), slot: RANGE_FIELDS.count },
                 ]}
                 slot={slot === "range" || slot === RANGE_FIELDS.from || slot === RANGE_FIELDS.to || slot === RANGE_FIELDS.count ? slot : null}
-                message={problem?.message}
+                message={problemText}
               />
               <Check label="Bin-averaged over equal bins instead of values at points: an angle bin gives the cross section in the bin divided by the bin's width in the variable of the derivative (its solid angle ΔΩ for dσ/dΩ, Δcos θ for dσ/dcos θ, Δt for dσ/dt), as a measured bin does; an energy bin gives the mean over its energies" checked={form.binned} onChange={set("binned")} />
             </div>
@@ -143,6 +188,22 @@ export default function Predictions() {
           <SelectField label="Unit" name="unit" value={form.unit} onChange={set("unit")} error={err("unit")}>
             {unitChoices(form.observable).map((u) => <option key={u} value={u}>{unitLabel(u)}</option>)}
           </SelectField>
+        </Group>
+
+        <Group title="Axes of the chart">
+          <div className="grid grid-cols-2 gap-2">
+            <SelectField label="x axis" name="xScale" value={form.xScale} onChange={set("xScale")}>
+              <option value="linear">linear</option><option value="log">log</option>
+            </SelectField>
+            <SelectField label="y axis" name="yScale" value={form.yScale} onChange={set("yScale")}>
+              <option value="linear">linear</option><option value="log">log</option>
+            </SelectField>
+            <Field label="x from" name="xMin" placeholder="auto" value={form.xMin} onChange={set("xMin")} inputMode="decimal" error={viewErrors.xMin} />
+            <Field label="x to" name="xMax" placeholder="auto" value={form.xMax} onChange={set("xMax")} inputMode="decimal" error={viewErrors.xMax} />
+            <Field label="y from" name="yMin" placeholder="auto" value={form.yMin} onChange={set("yMin")} inputMode="decimal" error={viewErrors.yMin} />
+            <Field label="y to" name="yMax" placeholder="auto" value={form.yMax} onChange={set("yMax")} inputMode="decimal" error={viewErrors.yMax} />
+          </div>
+          <p className="text-sm text-ink-soft">An empty end follows the curve. The address of this page keeps every setting: copy it to share the curve.</p>
         </Group>
 
         {info.acceptsScalarFormFactor ? (
@@ -175,21 +236,28 @@ export default function Predictions() {
         <Notice tone="info">
           Born-level predictions only — no radiative corrections, resolution or acceptance effects. Follow the journal's and the collaboration's rules when comparing with data.
         </Notice>
-        {slot === "general" ? <Notice tone="caution">{problem!.message}{problem!.field ? <span className="font-mono text-xs"> ({problem!.field})</span> : null}</Notice> : null}
-        <div className={`border border-rule bg-sheet p-3 ${busy || problem ? "opacity-60" : ""}`} aria-busy={busy}>
-          {problem && response ? (
-            <p className="px-1 pb-2 text-ink-soft">
-              Showing the last valid result ({response.conventions.reaction}, {OBSERVABLE_TITLE[response.observable]}); correct the marked field to update.
+        {slot === "general" ? <Notice tone="caution">{problemText}</Notice> : null}
+        <div className="border border-rule bg-sheet p-3" aria-busy={busy}>
+          {response && !current ? (
+            <p className="px-1 pb-2 text-ink" role="status" data-testid="stale-curve">
+              {problem
+                ? `Out of date: this is the curve of an earlier input (${response.conventions.reaction}, ${OBSERVABLE_TITLE[response.observable]}); correct the marked field to see the curve of this one.`
+                : "Out of date: computing the curve for the changed input…"}
             </p>
           ) : null}
-          {response === null ? (
-            <p className="p-10 text-ink-soft">{problem ? "Nothing to show yet." : "Computing…"}</p>
-          ) : response.variable === null ? (
-            <SingleValue response={response} />
-          ) : (
-            <CurveOf response={response} />
-          )}
+          <div className={response && !current ? "opacity-35 grayscale" : ""}>
+            {response === null ? (
+              <p className="p-10 text-ink-soft">{problem ? "Nothing to show yet: correct the marked field." : "Computing…"}</p>
+            ) : response.variable === null ? (
+              <SingleValue response={response} />
+            ) : (
+              <CurveOf response={response} view={view} />
+            )}
+          </div>
         </div>
+        {response && !current ? (
+          <p className="text-sm text-ink-soft">The table can be downloaded once the curve matches the form.</p>
+        ) : null}
         {response && csv ? (
           <div className="flex flex-wrap items-center gap-x-6 gap-y-2 text-sm">
             <span>engine <span className="font-mono">{response.engineVersion}</span></span>
@@ -202,13 +270,49 @@ export default function Predictions() {
             </a>
           </div>
         ) : null}
+        {response && current ? <AddToFigure figures={figures} layer={predictionLayerOf(form, info, built.body)} /> : null}
         <div className="border-t border-rule pt-3">
           <h2 className="mb-2 text-lg">Conventions</h2>
           <ConventionsList info={info} frame={response?.frame ?? form.frame} response={response && response.process === info.id ? response : null} />
         </div>
-        {response && response.values.length > 1 ? <ValuesTable response={response} /> : null}
+        {response && current && response.values.length > 1 ? <ValuesTable response={response} /> : null}
       </section>
     </div>
+  );
+}
+
+type FigureChoice = { id: string; title: string; manuscriptId: string; manuscriptTitle: string };
+
+/** Adds the shown prediction as a layer of a chosen figure's draft (figures of manuscripts the user is an author of). */
+function AddToFigure({ figures, layer }: { figures: FigureChoice[]; layer: Record<string, unknown> | null }) {
+  const fetcher = useFetcher<typeof action>();
+  const id = useId();
+  if (layer === null) return null;
+  if (figures.length === 0) {
+    return <p className="text-sm text-ink-soft">To add this curve to a figure, start a figure in a manuscript you are an author of.</p>;
+  }
+  const result = fetcher.data;
+  return (
+    <fetcher.Form method="post" className="flex flex-wrap items-end gap-3 border-t border-rule pt-3 text-sm" aria-label="Add to a figure">
+      <input type="hidden" name="layer" value={JSON.stringify(layer)} />
+      <div className="flex min-w-64 flex-1 flex-col gap-1">
+        <label htmlFor={id} className="font-medium">Add this prediction to a figure</label>
+        <select id={id} name="figureId" className="border border-rule-strong bg-sheet px-2 py-1.5">
+          {figures.map((f) => <option key={f.id} value={f.id}>{f.title} — {f.manuscriptTitle}</option>)}
+        </select>
+      </div>
+      <button type="submit" className="border border-ink px-3.5 py-1.5 font-medium hover:bg-ink hover:text-sheet" disabled={fetcher.state !== "idle"}>
+        {fetcher.state === "idle" ? "Add to the figure's draft" : "Adding…"}
+      </button>
+      <p className="w-full text-ink-soft">The figure draws it on its own axes, at this process, energy, masses, α and form factor; it becomes the draft's next revision.</p>
+      {result ? (
+        result.ok ? (
+          <p role="status" className="w-full text-ok">Added to “{result.figureTitle}” as draft revision {result.draftRevision}. <a className="underline" href={result.figureUrl}>Open the figure</a></p>
+        ) : (
+          <p role="alert" className="w-full text-madder">{result.message}</p>
+        )
+      ) : null}
+    </fetcher.Form>
   );
 }
 
@@ -236,7 +340,7 @@ function RangeInputs({ inputs, slot, message }: { inputs: RangeInput[]; slot: Er
               <label htmlFor={`${id}-${input.name}`} className="text-sm font-medium text-ink">{input.label}</label>
               <input id={`${id}-${input.name}`} name={input.name} value={input.value} onChange={input.onChange} inputMode={input.name === "count" ? "numeric" : "decimal"}
                 aria-invalid={bad ? true : undefined} aria-describedby={bad ? `${id}-error` : undefined}
-                className={`min-w-0 border bg-sheet px-2.5 py-1.5 text-ink outline-none focus:border-ink ${bad ? "border-madder" : "border-rule-strong"}`} />
+                className={`min-w-0 border bg-sheet px-2.5 py-1.5 text-ink focus:border-ink ${bad ? "border-madder" : "border-rule-strong"}`} />
             </div>
           );
         })}
@@ -255,9 +359,14 @@ function Check({ label, ...rest }: { label: string } & React.InputHTMLAttributes
   );
 }
 
-function CurveOf({ response: r }: { response: PredictionResponse }) {
-  const { spec, description } = useMemo(() => predictionChartSpec(r), [r]);
-  return <PredictionChart spec={spec} description={description} />;
+function CurveOf({ response: r, view }: { response: PredictionResponse; view: ChartView }) {
+  const { spec, description, notes } = useMemo(() => predictionChartSpec(r, view), [r, view]);
+  return (
+    <>
+      <PredictionChart spec={spec} description={description} />
+      {notes.map((n) => <p key={n} className="px-1 pt-2 text-sm text-ink-soft">{n}</p>)}
+    </>
+  );
 }
 
 function SingleValue({ response: r }: { response: PredictionResponse }) {

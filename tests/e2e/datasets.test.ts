@@ -72,4 +72,53 @@ describe("datasets in the browser", () => {
     expect(errors).toEqual([]);
     await page.close();
   });
+
+  it("guesses dsdo_ub_sr as y, marks a missing column at its field, empties the file picker after a stored revision, and tells a co-author why the page is read-only", async () => {
+    await browser.context.clearCookies();
+    const page = await browser.context.newPage();
+    const errors: string[] = [];
+    page.on("pageerror", (e) => errors.push(e.message));
+    const signIn = async (email: string) => {
+      await page.goto(`${testEnv.appUrl}/sign-in`);
+      await page.getByLabel("E-mail address").fill(email);
+      await page.getByLabel("Password").fill(DEMO.password);
+      await page.getByRole("button", { name: "Sign in" }).click();
+      await page.waitForURL(/\/manuscripts$/);
+    };
+    await signIn(DEMO.contributor);
+    await page.goto(`${testEnv.appUrl}/manuscripts/${DEMO.manuscriptId}/datasets`);
+    const name = `Abbreviated headers (browser ${Date.now()})`;
+    await page.getByLabel("Name", { exact: true }).fill(name);
+    await page.getByLabel("Unit of y").fill("ub/sr");
+    await page.getByRole("button", { name: "Create dataset" }).click();
+    await page.getByRole("heading", { name }).waitFor();
+    const datasetUrl = page.url();
+
+    await page.getByLabel("CSV file").setInputFiles(file("abbrev.csv", "theta_cm,dsdo_ub_sr,stat\n30,1.5,0.1\n45,1.2,0.08\n"));
+    await page.getByRole("button", { name: "Upload" }).click();
+    await page.getByRole("heading", { name: /Map the columns of “abbrev.csv”/ }).waitFor();
+    await expect(page.getByLabel("y (required)").inputValue()).resolves.toBe("dsdo_ub_sr");
+
+    // Unmap y: the refusal is written at the y field, in words.
+    await page.getByLabel("y (required)").selectOption("");
+    await page.getByRole("button", { name: "Check and store as a revision" }).click();
+    const y = page.getByLabel("y (required)");
+    await expect.poll(() => y.getAttribute("aria-invalid")).toBe("true");
+    const describedBy = (await y.getAttribute("aria-describedby"))!;
+    await expect(page.locator(`[id="${describedBy}"]`).textContent()).resolves.toBe("Choose a column.");
+    await expect(page.getByText(/Invalid input|expected string/).count()).resolves.toBe(0);
+
+    await y.selectOption("dsdo_ub_sr");
+    await page.getByRole("button", { name: "Check and store as a revision" }).click();
+    await page.getByText("Stored as revision").waitFor();
+    await expect(page.getByLabel("CSV file").inputValue()).resolves.toBe("");
+
+    await browser.context.clearCookies();
+    await signIn(DEMO.coauthor);
+    await page.goto(datasetUrl);
+    await page.getByTestId("read-only-reason").getByText("You are a co-author of this manuscript").waitFor();
+    await expect(page.getByLabel("CSV file").count()).resolves.toBe(0);
+    expect(errors).toEqual([]);
+    await page.close();
+  });
 });

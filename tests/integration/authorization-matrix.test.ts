@@ -233,6 +233,11 @@ const cases: Case[] = [
     name: "POST /manuscripts/:id/figures (create)", allowed: AUTHORS, okStatus: 302,
     call: (c) => c.post(`/manuscripts/${manuscriptId}/figures`, { title: `page figure ${fresh()}`, start: datasetId }), denied: pageDenied, anonymous: 302,
   },
+  {
+    name: "POST /predictions (add to a figure)", allowed: AUTHORS,
+    call: (c) => c.post("/predictions", { figureId, layer: JSON.stringify({ label: "QED, Born", process: "compton", energy: { kind: "kinetic", value: 0.5, unit: "GeV" } }) }),
+    denied: pageDenied, anonymous: 302,
+  },
   { name: "GET /manuscripts/:id/figures/:f", allowed: MEMBERS, call: (c) => c.get(`/manuscripts/${manuscriptId}/figures/${figureId}`), denied: pageDenied, anonymous: 302 },
   {
     name: "POST /manuscripts/:id/figures/:f (save the draft)", allowed: AUTHORS,

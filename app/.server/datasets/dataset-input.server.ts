@@ -1,5 +1,5 @@
 import { z } from "zod";
-import { type ColumnMapping, columnMappingSchema } from "~/datasets/column-mapping";
+import { type ColumnMapping, columnMappingSchema, mappingFieldWords } from "~/datasets/column-mapping";
 import { ENERGY_UNITS, T_UNITS, X_KINDS, Y_KINDS, quantitySchema } from "~/datasets/quantity";
 import { PROCESSES } from "~/engine";
 
@@ -131,7 +131,9 @@ export function uploadMapping(field: unknown, saved: unknown): UploadMapping {
   const parsed = sent.success && sent.data === undefined && saved != null ? columnMappingSchema.safeParse(saved) : sent;
   if (!parsed.success) {
     const issue = parsed.error.issues[0];
-    return { ok: false, code: "invalid-mapping", message: issue.message, field: ["mapping", ...issue.path].join(".") };
+    const path = issue.path.join(".");
+    const message = path === "" ? issue.message.charAt(0).toUpperCase() + issue.message.slice(1) : `The mapping of ${mappingFieldWords(path)} (“${path}”): ${issue.message}.`;
+    return { ok: false, code: "invalid-mapping", message, field: ["mapping", ...issue.path].join(".") };
   }
   if (parsed.data === undefined) {
     return { ok: false, code: "missing-mapping", message: "This dataset has no saved column mapping yet: send one in the “mapping” field.", field: "mapping" };

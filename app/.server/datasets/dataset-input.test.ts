@@ -24,5 +24,8 @@ describe("the mapping field of an API upload", () => {
     expect(uploadMapping(JSON.stringify({ x: "a", y: "a" }), null)).toMatchObject({ ok: false, code: "invalid-mapping", field: "mapping.y" });
     expect(uploadMapping(JSON.stringify({ x: "a", y: "b", xLow: "lo" }), null)).toMatchObject({ ok: false, code: "invalid-mapping", field: "mapping.xHigh" });
     expect(uploadMapping(null, { x: "" })).toMatchObject({ ok: false, code: "invalid-mapping", field: "mapping.x" });
+    // Written for a person, naming the field (not the schema library's "expected string, received undefined").
+    expect(uploadMapping(JSON.stringify({ y: "dsdo" }), null)).toEqual({ ok: false, code: "invalid-mapping", field: "mapping.x", message: "The mapping of x (“x”): choose a column." });
+    expect(uploadMapping(JSON.stringify({ x: "a", y: "b", stat: { column: "s" } }), null)).toMatchObject({ field: "mapping.stat.kind", message: expect.stringContaining("The mapping of the statistical error") });
   });
 });

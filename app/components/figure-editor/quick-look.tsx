@@ -2,6 +2,7 @@ import { useMemo, useState } from "react";
 import type { DatasetInputs } from "~/figures/figure-inputs";
 import type { FigureModel } from "~/figures/figure-model";
 import { useFigurePreview } from "./use-figure-preview";
+import { svgForPage } from "~/figures/svg-for-page";
 
 /**
  * A revision's points with their error bars, drawn by the figure renderer (the same code as a
@@ -26,7 +27,7 @@ export function QuickLook({ model, inputs, title }: { model: FigureModel; inputs
       {preview.error ? <p className="text-sm text-madder">The points could not be drawn: {preview.error}</p> : null}
       {preview.problems.length > 0 ? <ul className="text-sm text-madder">{preview.problems.map((p, i) => <li key={i}>{p.message}</li>)}</ul> : null}
       {preview.svg === null ? <p className="text-sm text-ink-soft">Drawing the points…</p> : (
-        <div className="mt-2 max-w-3xl border border-rule bg-white p-2 [&>svg]:h-auto [&>svg]:w-full" data-testid="quick-look" dangerouslySetInnerHTML={{ __html: preview.svg }} />
+        <div className="mt-2 max-w-3xl border border-rule bg-white p-2 [&>svg]:h-auto [&>svg]:w-full" data-testid="quick-look" dangerouslySetInnerHTML={{ __html: svgForPage(preview.svg) }} />
       )}
     </section>
   );

@@ -1,3 +1,4 @@
+import { svgForPage } from "~/figures/svg-for-page";
 /**
  * The figure at its printed size: CSS millimetres (96 px to the inch, which is what a browser
  * calls physical size; a screen's real pixel density may differ, so the ruler is there to check
@@ -20,7 +21,7 @@ export function TrueSizeView({ svg, widthMm, heightMm, smallestTextPt, thinnestL
         <svg width="6mm" height={`${heightMm}mm`} viewBox={`0 0 6 ${heightMm}`} aria-hidden="true">
           {ticks(heightMm).map((mm) => <line key={mm} y1={mm} y2={mm} x1={6} x2={mm % 10 === 0 ? 2 : mm % 5 === 0 ? 3.5 : 4.5} stroke="#25241f" strokeWidth={0.12} />)}
         </svg>
-        <div style={{ width: `${widthMm}mm`, height: `${heightMm}mm` }} className="[&>svg]:h-full [&>svg]:w-full" dangerouslySetInnerHTML={{ __html: svg }} />
+        <div style={{ width: `${widthMm}mm`, height: `${heightMm}mm` }} className="[&>svg]:h-full [&>svg]:w-full" dangerouslySetInnerHTML={{ __html: svgForPage(svg) }} />
       </div>
       <p className="text-xs text-ink-faint">Ruler in mm, numbered in cm.</p>
     </div>

@@ -15,7 +15,7 @@ describe("the page's requests are ones the engine accepts", () => {
       const variables: CurveVariable[] = observable === "sigma" ? ["none", "energy"] : ["thetaDeg", "cosTheta", "energy"];
       for (const variable of variables) {
         it(`${info.id}, ${observable} against ${variable}`, () => {
-          let f = withVariable(withObservable(withProcess(start, info), observable), variable);
+          let f = withVariable(withObservable(withProcess(start, info, PROCESSES[0]).state, observable), variable);
           if (info.divergesForward || info.divergesBackward) f = { ...f, acceptance: true };
           const built = buildPredictionRequest(f, info);
           expect(built.problem).toBeNull();
@@ -30,7 +30,7 @@ describe("the page's requests are ones the engine accepts", () => {
   it("offers only units that fit each observable", () => {
     const info = PROCESSES.find((p) => p.id === "muon-pair")!;
     for (const observable of ["dsigma/dOmega", "dsigma/dcos", "dsigma/dt", "sigma"] as const) {
-      const f = withObservable(withProcess(start, info), observable);
+      const f = withObservable(withProcess(start, info, PROCESSES[0]).state, observable);
       const variable = observable === "sigma" ? "none" : "thetaDeg";
       for (const unit of unitChoices(observable)) {
         const built = buildPredictionRequest({ ...withVariable(f, variable), energyKind: "sqrtS", energy: "1", unit }, info);

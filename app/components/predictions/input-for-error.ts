@@ -40,3 +40,45 @@ export function inputForError(field: string, f: PredictionFormState): ErrorSlot 
   if (last) return RANGE_FIELDS.to;
   return "range";
 }
+
+const ENERGY_WORDS: Record<string, string> = { sqrtS: "√s", beam: "the total beam energy", kinetic: "the beam kinetic energy" };
+const LIST_WORDS: Record<string, [string, string]> = {
+  thetaDeg: ["θ", "°"], cosTheta: ["cos θ", ""], t: ["t", " GeV²"], sqrtS: ["√s", ""], beam: ["the total beam energy", ""], kinetic: ["the beam kinetic energy", ""],
+};
+const PLAIN: Record<string, string> = {
+  mass: "the mass", finalMass: "the final mass", alpha: "α", unit: "the unit", frame: "the frame", process: "the process", observable: "the observable",
+  "formFactor.lambda": "Λ", "formFactor.mass": "m_V", "formFactor.width": "Γ_V", "formFactor.q2": "q²", formFactor: "the form factor",
+};
+
+/** The words of the form for an API path such as `energy.sqrtS` or `thetaDeg[3]` (with the value when it helps). */
+function wordsFor(field: string, request: Record<string, unknown> | null): string {
+  if (field in PLAIN) return PLAIN[field];
+  const energy = /^energy\.(sqrtS|beam|kinetic)$/.exec(field);
+  if (energy) return ENERGY_WORDS[energy[1]];
+  if (field.startsWith("acceptance")) return "the acceptance";
+  const list = /^(scan\.)?(thetaDeg|cosTheta|t|sqrtS|beam|kinetic)(Bins)?\[(\d+)\](?:\[([01])\])?$/.exec(field);
+  if (list) {
+    const [, scan, name, bins, index, edge] = list;
+    const holder = (scan ? (request?.scan as Record<string, unknown> | undefined) : request) ?? {};
+    const values = holder[`${name}${bins ?? ""}`] as unknown[] | undefined;
+    const item = values?.[Number(index)];
+    const value = Array.isArray(item) ? (edge === undefined ? null : item[Number(edge)]) : item;
+    const [word, unit] = LIST_WORDS[name];
+    const energyUnit = scan ? ` ${String((request?.scan as { unit?: string } | undefined)?.unit ?? "GeV")}` : "";
+    if (typeof value === "number") return `${word} = ${value}${unit || energyUnit}`;
+    return bins ? `the bin ${Array.isArray(item) ? `${item[0]} to ${item[1]}` : Number(index) + 1} of ${word}` : word;
+  }
+  return field;
+}
+
+/**
+ * A problem's message in the form's words: the API names its fields by their path in the
+ * request (`energy.sqrtS must be a number …`, `… at thetaDeg[0]`), which means nothing to a
+ * reader of the page. Each such path becomes the input's name (and value, for a list point).
+ */
+export function inFormWords(message: string, field: string | undefined, request: Record<string, unknown> | null): string {
+  let out = message;
+  if (field) out = out.split(field).join(wordsFor(field, request));
+  out = out.replace(/\bas sqrtS\b/, "as √s");
+  return out.charAt(0).toUpperCase() + out.slice(1);
+}

@@ -20,10 +20,10 @@ export function Field({ label, name, error, hint, className, ...input }: FieldPr
         name={name}
         aria-invalid={error ? true : undefined}
         aria-describedby={[error ? errId : null, hint ? hintId : null].filter(Boolean).join(" ") || undefined}
-        className={`border bg-sheet px-2.5 py-1.5 text-ink outline-none focus:border-ink ${error ? "border-madder" : "border-rule-strong"}`}
+        className={`border bg-sheet px-2.5 py-1.5 text-ink focus:border-ink ${error ? "border-madder" : "border-rule-strong"}`}
         {...input}
       />
-      {hint ? <p id={hintId} className="text-xs text-ink-faint">{hint}</p> : null}
+      {hint ? <p id={hintId} className="text-sm text-ink-soft">{hint}</p> : null}
       {error ? <p id={errId} className="text-sm text-madder" role="alert">{error}</p> : null}
     </div>
   );
