@@ -3,6 +3,7 @@
 import { createRequestHandler } from "@react-router/express";
 import compression from "compression";
 import express from "express";
+import { readdirSync } from "node:fs";
 import { clusterPrimary } from "./lib/cluster-primary.js";
 import { DEFAULT_BODY_MAX_BYTES, limitRequestBodies, noStoreForSignedIn, securityHeaders } from "./lib/http-hardening.js";
 
@@ -26,7 +27,12 @@ app.use(
 );
 app.use(compression());
 app.use("/assets", express.static("build/client/assets", { immutable: true, maxAge: "1y" }));
-app.use(express.static("build/client", { maxAge: "1h" }));
+// express.static looks a path up on disk (a stat() in the thread pool) before it passes a request
+// on; pages and API calls are never files, so only paths under build/client's own top-level
+// names are looked up there.
+const clientFiles = express.static("build/client", { maxAge: "1h" });
+const clientNames = new Set(readdirSync("build/client"));
+app.use((req, res, next) => (clientNames.has(req.path.split("/")[1]) ? clientFiles(req, res, next) : next()));
 app.all(
   "/{*splat}",
   noStoreForSignedIn,

@@ -5,7 +5,7 @@ import type { ColumnMapping } from "~/datasets/column-mapping";
 import type { DatasetProblem } from "~/datasets/dataset-problem";
 import type { QuantityDescription } from "~/datasets/quantity";
 import { recordAudit } from "../platform/audit.server";
-import { ingestCsv } from "./csv/ingest-csv.server";
+import { ingestCsvOffThread } from "./csv/ingest-csv-pool.server";
 import { db } from "../platform/db.server";
 import { env } from "../platform/env.server";
 import { type SaveRevisionResult, saveRevision } from "./dataset-repository.server";
@@ -88,7 +88,8 @@ export async function ingestUpload(args: {
   quantity: QuantityDescription;
 }): Promise<UploadOutcome> {
   const st = blobStore();
-  const result = await ingestCsv(args.tempPath, { mapping: args.mapping, quantity: args.quantity, limits: { maxRows: env.UPLOAD_MAX_ROWS } });
+  // On a worker thread: seconds of parsing must not hold the event loop (decision 0012).
+  const result = await ingestCsvOffThread(args.tempPath, { mapping: args.mapping, quantity: args.quantity, limits: { maxRows: env.UPLOAD_MAX_ROWS } });
   if (!result.ok) {
     await st.discard(args.tempPath);
     const detail = result.reason === "problems" ? { problemCount: result.problemCount, fileName: args.raw.fileName } : { limit: result.limit, fileName: args.raw.fileName };

@@ -5,7 +5,7 @@ import { apiError } from "./api-error.server";
 import { db } from "../db.server";
 import { env } from "../env.server";
 import { hashSecret } from "../tokens.server";
-import { clearSessionCookie, sessionUserId } from "../session.server";
+import { clearSessionCookie, sessionUser } from "../session.server";
 import { findActiveUser, type SessionUser } from "../../accounts/users.server";
 
 // The root loader and the page's own loader both ask who is signed in; one look-up a request.
@@ -14,7 +14,7 @@ const seen = new WeakMap<Request, Promise<SessionUser | null>>();
 export function optionalUser(request: Request): Promise<SessionUser | null> {
   let user = seen.get(request);
   if (!user) {
-    user = sessionUserId(request).then((id) => (id ? findActiveUser(db, id) : null));
+    user = sessionUser(request);
     seen.set(request, user);
   }
   return user;
