@@ -1,41 +1,8 @@
 import type { Db } from "./db.server";
 
-export type AuditAction =
-  | "sign-in"
-  | "sign-in-failed"
-  | "sign-out"
-  | "sign-out-everywhere"
-  | "sign-up"
-  | "email-confirmed"
-  | "password-reset-requested"
-  | "password-reset"
-  | "manuscript-created"
-  | "member-invited"
-  | "member-joined"
-  | "member-role-changed"
-  | "member-removed"
-  | "account-disabled"
-  | "account-enabled"
-  | "account-reset"
-  | "api-token-created"
-  | "api-token-revoked"
-  | "dataset-created"
-  | "revision-uploaded"
-  | "revision-rejected"
-  | "revision-identical"
-  | "raw-file-downloaded"
-  | "figure-created"
-  | "figure-draft-saved"
-  | "version-sealed"
-  | "version-superseded"
-  | "signoff-requested"
-  | "version-signed-off"
-  | "version-returned"
-  | "version-commented"
-  | "export-requested"
-  | "export-preflight-overridden"
-  | "export-completed"
-  | "export-failed";
+import type { AuditAction } from "~/activity/activity-sentence";
+
+export type { AuditAction };
 
 export interface AuditEntry {
   action: AuditAction;
