@@ -44,6 +44,9 @@ export const AUDIT_ACTIONS = [
 ] as const;
 export type AuditAction = (typeof AUDIT_ACTIONS)[number];
 
+/** Entries on one page of the log. */
+export const ACTIVITY_PAGE_SIZE = 50;
+
 /** The kinds the log can be filtered by, in the order the filter lists them. */
 export const ACTIVITY_KINDS = ["members", "datasets", "figures", "review", "exports", "account"] as const;
 export type ActivityKind = (typeof ACTIVITY_KINDS)[number];

@@ -2,8 +2,8 @@ import { Form, Link, useLoaderData } from "react-router";
 import type { Route } from "./+types/manuscript-audit";
 import { db } from "~/.server/platform/db.server";
 import { loadManuscriptPage } from "~/.server/manuscripts/manuscript-context.server";
-import { ACTIVITY_PAGE_SIZE, activityPeople, listActivity, parseActivityFilter } from "~/.server/manuscripts/activity.server";
-import { ACTIVITY_KINDS, KIND_LABEL, activitySentence, formatUtc, type SentencePart } from "~/activity/activity-sentence";
+import { activityPeople, listActivity, parseActivityFilter } from "~/.server/manuscripts/activity.server";
+import { ACTIVITY_KINDS, ACTIVITY_PAGE_SIZE, KIND_LABEL, activitySentence, formatUtc, type SentencePart } from "~/activity/activity-sentence";
 import { Fingerprint } from "~/components/fingerprint";
 import { ManuscriptNav } from "~/components/manuscript-nav";
 

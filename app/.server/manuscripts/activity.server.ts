@@ -1,9 +1,7 @@
 import { z } from "zod";
-import { ACTIVITY_KINDS, actionsOfKind, namedIds, type ActivityKind, type ActivityNames } from "~/activity/activity-sentence";
+import { ACTIVITY_KINDS, ACTIVITY_PAGE_SIZE, actionsOfKind, namedIds, type ActivityKind, type ActivityNames } from "~/activity/activity-sentence";
 import { isUuid } from "~/is-uuid";
 import type { Db } from "../platform/db.server";
-
-export const ACTIVITY_PAGE_SIZE = 50;
 
 /** The log's search params: ?person=<user id>&kind=<kind>&page=<n>; anything else is ignored. */
 export const activityFilterSchema = z.object({
