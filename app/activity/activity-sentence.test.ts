@@ -91,6 +91,13 @@ describe("activitySentence", () => {
     expect(sentenceText(sentence("sign-out", {}, null))).toBe("Someone signed out.");
   });
 
+  it("names the exported version when the server found it from the export's id", () => {
+    const withExport = { ...names, exports: { e: { figureId: FIGURE, version: 2 } } };
+    const parts = activitySentence({ action: "export-completed", actorName: "Ada", manuscriptId: M, detail: EXAMPLES["export-completed"].detail }, withExport);
+    expect(sentenceText(parts)).toBe(`Ada’s export of v2 of “Angular distribution” was made; bundle SHA-256 ${HASH}.`);
+    expect(parts).toContainEqual({ text: "v2", href: `/manuscripts/${M}/figures/${FIGURE}/versions/2` });
+  });
+
   it("an action it does not know is shown by name, not dropped", () => {
     expect(sentenceText(sentence("dataset-exploded", {}))).toBe("Ada did “dataset-exploded” (an action this version of Steradian does not describe).");
   });
@@ -106,7 +113,7 @@ describe("activitySentence", () => {
 
 describe("namedIds and formatUtc", () => {
   it("collects each id once", () => {
-    expect(namedIds([{ detail: { userId: BEN, datasetId: DATASET } }, { detail: { userId: BEN, figureId: FIGURE } }, { detail: null }])).toEqual({ people: [BEN], datasets: [DATASET], figures: [FIGURE] });
+    expect(namedIds([{ detail: { userId: BEN, datasetId: DATASET } }, { detail: { userId: BEN, figureId: FIGURE } }, { detail: { exportId: "e" } }, { detail: null }])).toEqual({ people: [BEN], datasets: [DATASET], figures: [FIGURE], exports: ["e"] });
   });
   it("writes a moment on one line in UTC", () => {
     expect(formatUtc(new Date(Date.UTC(2026, 11, 2, 18, 4, 5, 678)))).toBe("2026-12-02 18:04:05 UTC");

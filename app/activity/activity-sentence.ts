@@ -91,6 +91,8 @@ export interface ActivityNames {
   people: Record<string, string>;
   datasets: Record<string, string>;
   figures: Record<string, string>;
+  /** For export rows that record only the export's id: the figure and version number exported. */
+  exports?: Record<string, { figureId: string; version: number }>;
 }
 
 const ROLE: Record<string, string> = { observer: "observer", contributor: "contributor", coauthor: "co-author", corresponding: "corresponding author" };
@@ -141,6 +143,11 @@ class Builder {
     const id = str(this.d, "figureId");
     return this.link(n === null ? "a version" : `v${n}`, id && n !== null && this.m ? `${this.m}/figures/${id}/versions/${n}` : null);
   }
+  /** "export of v2 of “Figure”", or "export" when the version is not known. */
+  exportOf(d: Detail) {
+    this.text("export");
+    return typeof d.figureId === "string" && num(d, "version") !== null ? this.text(" of ").version(num(d, "version")).text(" of ").figure() : this;
+  }
   quote(k: string) {
     const t = str(this.d, k);
     return t ? this.text(`: “${t}”`) : this;
@@ -149,7 +156,9 @@ class Builder {
 
 /** The sentence for one audit row, starting with who did it. */
 export function activitySentence(row: ActivityRow, names: ActivityNames): SentencePart[] {
-  const d: Detail = row.detail && typeof row.detail === "object" && !Array.isArray(row.detail) ? (row.detail as Detail) : {};
+  const recorded: Detail = row.detail && typeof row.detail === "object" && !Array.isArray(row.detail) ? (row.detail as Detail) : {};
+  const exported = typeof recorded.exportId === "string" && typeof recorded.figureId !== "string" ? names.exports?.[recorded.exportId] : undefined;
+  const d: Detail = exported ? { ...recorded, ...exported } : recorded;
   const b = new Builder(row, d, names);
   const who = row.actorName ?? "Someone";
   const action = row.action as AuditAction;
@@ -213,8 +222,8 @@ const SENTENCES: Record<AuditAction, (b: Builder, d: Detail) => void> = {
   "version-commented": (b, d) => b.text("commented on ").version(num(d, "number")).text(" of ").figure().quote("comment"),
   "export-requested": (b, d) => b.text("asked for an export of ").version(num(d, "version")).text(" of ").figure(),
   "export-preflight-overridden": (b, d) => b.text("overrode the failing preflight of the export of ").version(num(d, "version")).text(" of ").figure().quote("reason"),
-  "export-completed": (b, d) => b.text(`export was made${d.overridden === true ? " with the preflight overridden" : ""}; bundle SHA-256 `).fingerprint(str(d, "bundleSha256")),
-  "export-failed": (b, d) => b.text(`export was not made${str(d, "reason") ? `: ${str(d, "reason")}` : ""}`),
+  "export-completed": (b, d) => b.exportOf(d).text(` was made${d.overridden === true ? " with the preflight overridden" : ""}; bundle SHA-256 `).fingerprint(str(d, "bundleSha256")),
+  "export-failed": (b, d) => b.exportOf(d).text(` was not made${str(d, "reason") ? `: ${str(d, "reason")}` : ""}`),
 };
 
 /** The sentence as plain text, fingerprints whole (for the CSV download). */
@@ -223,7 +232,8 @@ export function sentenceText(parts: SentencePart[]): string {
 }
 
 /** The ids a page of rows names, so the server can look their names up in one query each. */
-export function namedIds(rows: { detail: unknown }[]): { people: string[]; datasets: string[]; figures: string[] } {
+export function namedIds(rows: { detail: unknown }[]): { people: string[]; datasets: string[]; figures: string[]; exports: string[] } {
+  const exports = new Set<string>();
   const people = new Set<string>();
   const datasets = new Set<string>();
   const figures = new Set<string>();
@@ -232,8 +242,9 @@ export function namedIds(rows: { detail: unknown }[]): { people: string[]; datas
     if (typeof d.userId === "string") people.add(d.userId);
     if (typeof d.datasetId === "string") datasets.add(d.datasetId);
     if (typeof d.figureId === "string") figures.add(d.figureId);
+    else if (typeof d.exportId === "string") exports.add(d.exportId);
   }
-  return { people: [...people], datasets: [...datasets], figures: [...figures] };
+  return { people: [...people], datasets: [...datasets], figures: [...figures], exports: [...exports] };
 }
 
 /** A moment on one line, in UTC, said so: 2026-12-02 18:04:05 UTC. */

@@ -38,6 +38,13 @@ export async function listActivity(db: Db, manuscriptId: string, f: ActivityFilt
 /** The names of the people, datasets and figures a set of rows mentions (only this manuscript's). */
 async function lookUpNames(db: Db, manuscriptId: string, rows: { detail: unknown }[]): Promise<ActivityNames> {
   const ids = namedIds(rows);
+  const exports = ids.exports.filter(isUuid);
+  const ex = exports.length
+    ? await db.selectFrom("figure_export").innerJoin("figure_version", "figure_version.id", "figure_export.version_id")
+      .select(["figure_export.id", "figure_version.figure_id", "figure_version.number"])
+      .where("figure_export.manuscript_id", "=", manuscriptId).where("figure_export.id", "in", exports).execute()
+    : [];
+  for (const e of ex) if (!ids.figures.includes(e.figure_id)) ids.figures.push(e.figure_id);
   const people = ids.people.filter(isUuid);
   const datasets = ids.datasets.filter(isUuid);
   const figures = ids.figures.filter(isUuid);
@@ -50,6 +57,7 @@ async function lookUpNames(db: Db, manuscriptId: string, rows: { detail: unknown
     people: Object.fromEntries(p.map((r) => [r.id, r.name])),
     datasets: Object.fromEntries(d.map((r) => [r.id, r.name])),
     figures: Object.fromEntries(fg.map((r) => [r.id, r.title])),
+    exports: Object.fromEntries(ex.map((e) => [e.id, { figureId: e.figure_id, version: e.number }])),
   };
 }
 
