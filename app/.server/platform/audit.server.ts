@@ -25,14 +25,3 @@ export async function recordAudit(db: Db, e: AuditEntry): Promise<void> {
     })
     .execute();
 }
-
-export async function listManuscriptAudit(db: Db, manuscriptId: string, limit = 200) {
-  return db
-    .selectFrom("audit_event")
-    .leftJoin("app_user", "app_user.id", "audit_event.actor_id")
-    .select(["audit_event.id", "audit_event.at", "audit_event.action", "audit_event.detail", "app_user.name as actorName", "app_user.email as actorEmail"])
-    .where("audit_event.manuscript_id", "=", manuscriptId)
-    .orderBy("audit_event.id", "desc")
-    .limit(limit)
-    .execute();
-}
