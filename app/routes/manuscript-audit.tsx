@@ -57,7 +57,7 @@ export default function Audit() {
       </p>
       <table className="mt-2 w-full text-sm">
         <thead className="border-b border-rule text-left text-ink-soft">
-          <tr><th className="py-2 pr-4 font-medium whitespace-nowrap">When (UTC)</th><th className="font-medium">What happened</th></tr>
+          <tr><th className="w-px py-2 pr-4 font-medium whitespace-nowrap">When (UTC)</th><th className="font-medium">What happened</th></tr>
         </thead>
         <tbody className="divide-y divide-rule">
           {events.map((e) => (
