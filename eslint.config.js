@@ -1,9 +1,9 @@
 import tseslint from "typescript-eslint";
 
-// app/engine, app/datasets, app/figures and app/exports are pure: they run unchanged in the
+// app/engine, app/datasets, app/figures, app/exports and app/activity are pure: they run unchanged in the
 // browser, the server, a worker and a benchmark. vega, vega-lite, d3-array, zod and
 // @mathjax/* are pure too.
-const PURE = ["app/engine", "app/datasets", "app/figures", "app/exports"];
+const PURE = ["app/engine", "app/datasets", "app/figures", "app/exports", "app/activity"];
 const react = { group: ["react", "react/*", "react-dom", "react-dom/*", "react-vega", "vega-embed"], message: "Pure modules (app/engine, app/datasets, app/figures, app/exports) stay free of React." };
 const framework = { group: ["react-router", "@react-router/*"], message: "Pure modules must not import the framework." };
 const database = { group: ["kysely", "kysely/*", "pg", "pg/*"], message: "Pure modules must not touch the database." };

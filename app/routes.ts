@@ -17,6 +17,7 @@ export default [
     route(":manuscriptId", "routes/manuscript.tsx"),
     route(":manuscriptId/members", "routes/manuscript-members.tsx"),
     route(":manuscriptId/audit", "routes/manuscript-audit.tsx"),
+    route(":manuscriptId/audit.csv", "routes/manuscript-audit-csv.ts"),
     route(":manuscriptId/datasets", "routes/datasets.tsx"),
     route(":manuscriptId/datasets/:datasetId", "routes/dataset.tsx"),
     route(":manuscriptId/datasets/:datasetId/compare", "routes/revision-compare.tsx"),

@@ -1,5 +1,5 @@
 // The pure modules stay pure: the lint rule in eslint.config.js refuses framework, database,
-// server and Node imports in app/engine, app/datasets and app/figures (and lets their tests and
+// server and Node imports in app/engine, app/datasets, app/figures and app/activity (and lets their tests and
 // testing helpers read files).
 import { ESLint } from "eslint";
 import { describe, expect, it } from "vitest";
@@ -11,7 +11,7 @@ async function errorsFor(code: string, filePath: string): Promise<string[]> {
   return result.messages.filter((m) => m.severity === 2).map((m) => m.message);
 }
 
-for (const dir of ["app/engine", "app/datasets", "app/figures"]) {
+for (const dir of ["app/engine", "app/datasets", "app/figures", "app/activity"]) {
   describe(`purity rule for ${dir}`, () => {
     for (const [what, line] of [
       ["react", 'import { useState } from "react";'],

@@ -141,6 +141,7 @@ const cases: Case[] = [
     denied: pageDenied, anonymous: 302,
   },
   { name: "GET /manuscripts/:id/audit", allowed: ["corresponding"], call: (c) => c.get(`/manuscripts/${manuscriptId}/audit`), denied: pageDenied, anonymous: 302 },
+  { name: "GET /manuscripts/:id/audit.csv", allowed: ["corresponding"], call: (c) => c.get(`/manuscripts/${manuscriptId}/audit.csv`), denied: pageDenied, anonymous: 302 },
   { name: "GET /account", allowed: SIGNED_IN, call: (c) => c.get("/account"), denied: () => 0, anonymous: 302 },
   { name: "GET /admin/accounts", allowed: ["admin"], call: (c) => c.get("/admin/accounts"), denied: () => 403, anonymous: 302 },
   { name: "GET /admin/mail", allowed: ["admin"], call: (c) => c.get("/admin/mail"), denied: () => 403, anonymous: 302 },
