@@ -9,6 +9,7 @@ import * as m20261201_1700 from "./migrations/2026_12_01_1700_check_dataset_row_
 import * as m20261202_0900 from "./migrations/2026_12_02_0900_create_figures";
 import * as m20261203_0900 from "./migrations/2026_12_03_0900_create_figure_versions";
 import * as m20261204_0900 from "./migrations/2026_12_04_0900_create_user_sessions";
+import * as m20261204_1000 from "./migrations/2026_12_04_1000_retire_datasets";
 import * as m20261204_1100 from "./migrations/2026_12_04_1100_create_figure_exports";
 
 export const MIGRATIONS: Record<string, Migration> = {
@@ -19,5 +20,6 @@ export const MIGRATIONS: Record<string, Migration> = {
   "2026_12_02_0900_create_figures": m20261202_0900,
   "2026_12_03_0900_create_figure_versions": m20261203_0900,
   "2026_12_04_0900_create_user_sessions": m20261204_0900,
+  "2026_12_04_1000_retire_datasets": m20261204_1000,
   "2026_12_04_1100_create_figure_exports": m20261204_1100,
 };

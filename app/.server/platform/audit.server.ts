@@ -20,6 +20,8 @@ export type AuditAction =
   | "api-token-created"
   | "api-token-revoked"
   | "dataset-created"
+  | "dataset-renamed"
+  | "dataset-retired"
   | "revision-uploaded"
   | "revision-rejected"
   | "revision-identical"
