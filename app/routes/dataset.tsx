@@ -173,13 +173,13 @@ export default function DatasetPage() {
           {revisions.length === 0 ? <p className="mt-3 text-ink-soft">No revision yet. Upload the measured values as CSV.</p> : (
             <table className="mt-3 w-full text-sm">
               <thead className="border-b border-rule text-left text-ink-soft">
-                <tr><th className="py-2 font-medium">Revision</th><th className="font-medium">Rows</th><th className="font-medium">Content fingerprint</th><th className="font-medium">File</th><th className="font-medium">Uploaded</th></tr>
+                <tr><th className="py-2 font-medium">Revision</th><th className="pr-4 text-right font-medium">Rows</th><th className="font-medium">Content fingerprint</th><th className="font-medium">File</th><th className="font-medium">Uploaded</th></tr>
               </thead>
               <tbody className="divide-y divide-rule">
                 {revisions.map((r) => (
                   <tr key={r.id}>
                     <td className="py-2"><Link className="font-mono underline underline-offset-2" to={`revisions/${r.number}`}>r{r.number}</Link></td>
-                    <td className="num">{r.row_count.toLocaleString("en")}</td>
+                    <td className="num pr-4 text-right">{r.row_count.toLocaleString("en")}</td>
                     <td><Fingerprint value={r.content_hash} /></td>
                     <td>{can["download:raw"] ? <a className="underline underline-offset-2" href={`/manuscripts/${manuscript.id}/datasets/${dataset.id}/revisions/${r.number}/raw`}>{r.raw_filename}</a> : r.raw_filename}</td>
                     <td className="num text-ink-soft">{new Date(r.created_at).toISOString().slice(0, 16).replace("T", " ")} · {r.uploaderName}</td>

@@ -88,7 +88,7 @@ export default function RevisionPage() {
           {table.getHeaderGroups().map((g) => (
             <tr key={g.id}>
               {g.headers.map((h) => (
-                <th key={h.id} className="py-2 pr-4 font-medium" aria-sort={h.column.getIsSorted() ? (h.column.getIsSorted() === "desc" ? "descending" : "ascending") : undefined}>
+                <th key={h.id} className="py-2 pr-4 text-right font-medium" aria-sort={h.column.getIsSorted() ? (h.column.getIsSorted() === "desc" ? "descending" : "ascending") : undefined}>
                   {h.column.getCanSort() ? (
                     <button type="button" onClick={h.column.getToggleSortingHandler()} className="hover:text-madder">
                       {flexRender(h.column.columnDef.header, h.getContext())} <Shape name={h.column.getIsSorted() === "asc" ? "up" : h.column.getIsSorted() === "desc" ? "down" : "up-down"} />
@@ -101,7 +101,7 @@ export default function RevisionPage() {
         </thead>
         <tbody className="num divide-y divide-rule font-mono text-xs">
           {table.getRowModel().rows.map((r) => (
-            <tr key={r.id}>{r.getVisibleCells().map((c) => <td key={c.id} className="py-1 pr-4">{flexRender(c.column.columnDef.cell, c.getContext())}</td>)}</tr>
+            <tr key={r.id}>{r.getVisibleCells().map((c) => <td key={c.id} className="py-1 pr-4 text-right">{flexRender(c.column.columnDef.cell, c.getContext())}</td>)}</tr>
           ))}
         </tbody>
       </table>
