@@ -7,11 +7,17 @@ import { diffRevisionsInDatabase } from "~/.server/datasets/revision-diff.server
 import { db } from "~/.server/platform/db.server";
 import { notFound } from "~/.server/platform/http/guards.server";
 import { ManuscriptNav } from "~/components/manuscript-nav";
+import { QuickLook } from "~/components/figure-editor/quick-look";
+import { loadDatasetInputs } from "~/.server/figures/figure-inputs.server";
+import { compareRevisionsModel } from "~/figures/starter-model";
+import type { QuantityDescription } from "~/datasets";
 import { displayScale, formatValue } from "~/components/quantity-labels";
 import { type RevisionRow, rowDelta } from "~/datasets/diff-revisions";
 
 const Query = z.object({ from: z.string().default(""), to: z.string().default("") });
 const LISTED = 500;
+/** As on the revision page: the plot draws every point in the browser. */
+const QUICK_LOOK_MAX_ROWS = 5000;
 
 export async function loader({ request, params }: Route.LoaderArgs) {
   const page = await loadDatasetPage(request, params);
@@ -20,7 +26,10 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const [a, b] = await Promise.all([findRevision(db, dataset.id, parseRevisionNumber("page", q.from)), findRevision(db, dataset.id, parseRevisionNumber("page", q.to))]);
   if (!a || !b) notFound("page", "One of the revisions");
   const diff = await diffRevisionsInDatabase(db, { id: a.id, label: `r${a.number}` }, { id: b.id, label: `r${b.number}` }, LISTED);
-  return { ...page, dataset: { id: dataset.id, name: dataset.name, quantity: dataset.quantity }, from: a.number, to: b.number, diff };
+  // Both revisions drawn by the figure renderer, as the revision page's quick look draws one.
+  const look = compareRevisionsModel({ id: dataset.id, name: dataset.name, quantity: b.quantity as unknown as QuantityDescription }, a.number, b.number);
+  const lookInputs = a.row_count + b.row_count <= QUICK_LOOK_MAX_ROWS ? await loadDatasetInputs(db, dataset.manuscript_id, look) : null;
+  return { ...page, dataset: { id: dataset.id, name: dataset.name, quantity: dataset.quantity }, from: a.number, to: b.number, diff, look, lookInputs };
 }
 
 const FIELD_LABELS: Record<string, string> = { x: "x", xLow: "bin low", xHigh: "bin high", y: "y", statMinus: "stat −", statPlus: "stat +", systMinus: "syst −", systPlus: "syst +" };
@@ -44,7 +53,7 @@ const THN = "py-2 pr-4 text-right font-medium";
 const TDN = "py-1.5 pr-4 text-right whitespace-nowrap";
 
 export default function Compare() {
-  const { manuscript, role, can, dataset, from, to, diff } = useLoaderData<typeof loader>();
+  const { manuscript, role, can, dataset, from, to, diff, look, lookInputs } = useLoaderData<typeof loader>();
   const scale = displayScale(dataset.quantity);
   const hasSyst = (rows: RevisionRow[]) => rows.some((r) => r.systMinus != null || r.systPlus != null);
   return (
@@ -54,6 +63,10 @@ export default function Compare() {
       <h2 className="mt-1 text-2xl">Comparing <span className="font-mono">r{from}</span> with <span className="font-mono">r{to}</span></h2>
       <p className="mt-2 text-sm" data-testid="diff-summary">{diff.summary}</p>
       <p className="text-sm text-ink-soft">Rows matched by {diff.keyedBy === "bin" ? "their bin" : "x"}; values in the dataset's units ({scale.yUnit}), y written as value ± stat ± syst (an error given once is symmetric).</p>
+      <div className="mt-4">
+        {lookInputs ? <QuickLook model={look} inputs={lookInputs} title={`${dataset.name}: r${from} and r${to}`} />
+          : <p className="text-sm text-ink-soft">No plot: the two revisions have more than {QUICK_LOOK_MAX_ROWS.toLocaleString("en")} rows together.</p>}
+      </div>
       <section className="mt-6 space-y-8 text-sm">
         {diff.changedCount > 0 ? (
           <div>
