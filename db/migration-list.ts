@@ -10,6 +10,7 @@ import * as m20261202_0900 from "./migrations/2026_12_02_0900_create_figures";
 import * as m20261203_0900 from "./migrations/2026_12_03_0900_create_figure_versions";
 import * as m20261204_0900 from "./migrations/2026_12_04_0900_create_user_sessions";
 import * as m20261204_1100 from "./migrations/2026_12_04_1100_create_figure_exports";
+import * as m20261204_1200 from "./migrations/2026_12_04_1200_retire_datasets";
 
 export const MIGRATIONS: Record<string, Migration> = {
   "2026_12_01_1200_create_accounts_and_manuscripts": m20261201_1200,
@@ -20,4 +21,5 @@ export const MIGRATIONS: Record<string, Migration> = {
   "2026_12_03_0900_create_figure_versions": m20261203_0900,
   "2026_12_04_0900_create_user_sessions": m20261204_0900,
   "2026_12_04_1100_create_figure_exports": m20261204_1100,
+  "2026_12_04_1200_retire_datasets": m20261204_1200,
 };

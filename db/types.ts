@@ -117,6 +117,8 @@ export interface DatasetTable {
   is_demo: Generated<boolean>;
   created_by: string;
   created_at: GeneratedTimestamp;
+  retired_at: NullableTimestamp;
+  retired_by: string | null;
 }
 
 export interface DatasetRevisionTable {

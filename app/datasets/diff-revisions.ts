@@ -102,3 +102,35 @@ export function diffRevisions(from: DiffSide, to: DiffSide, options: { maxListed
   result.summary = `${from.label} → ${to.label}: ${result.addedCount} added, ${result.removedCount} removed, ${result.changedCount} changed, ${result.unchangedCount} unchanged`;
   return result;
 }
+
+export interface RowDelta {
+  /** Δ = y(to) − y(from), in the normal form's units. */
+  delta: number;
+  /** Δ / |y(from)|; null when y(from) is 0. */
+  relative: number | null;
+  /** σ = √(σ_from² + σ_to²), each σ the stat and syst errors added in quadrature; 0 when no errors are given. */
+  sigma: number;
+  /** Δ / σ; null when σ is 0. */
+  pull: number | null;
+}
+
+/**
+ * How far a row moved between two revisions, in units of their combined uncertainty:
+ * Δ/σ = (y₂ − y₁) / √(σ₁² + σ₂²) with σᵢ² = statᵢ² + systᵢ² — the standard difference of two
+ * independent measurements (e.g. PDG, Review of Particle Physics, "Statistics", combination of
+ * independent errors; common practice). With asymmetric errors each side contributes the error
+ * that points toward the other value (from's + error and to's − error when y rises). Two
+ * revisions of one measurement usually share part of their errors, so this σ is an upper bound
+ * and Δ/σ a lower bound on the significance of the change; the compare page says so.
+ */
+export function rowDelta(from: RevisionRow, to: RevisionRow): RowDelta {
+  const delta = to.y - from.y;
+  const up = delta >= 0;
+  const side = (r: RevisionRow, plus: boolean) => {
+    const stat = (plus ? r.statPlus : r.statMinus) ?? 0;
+    const syst = (plus ? r.systPlus : r.systMinus) ?? 0;
+    return stat * stat + syst * syst;
+  };
+  const sigma = Math.sqrt(side(from, up) + side(to, !up));
+  return { delta, relative: from.y === 0 ? null : delta / Math.abs(from.y), sigma, pull: sigma === 0 ? null : delta / sigma };
+}

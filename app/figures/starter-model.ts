@@ -95,3 +95,16 @@ export function quickLookModel(d: Omit<StarterDataset, "process" | "beamEnergyGe
   const m = figureModelFromDataset({ ...d, process: null, beamEnergyGeV: null });
   return figureModelSchema.parse({ ...m, preset: "double-column", panelHeightMm: 60, y: { ...m.y, scale: yScale }, legend: { position: "none", statistics: "none" } });
 }
+
+/** Two revisions of one dataset on one panel, each with its own marker, for the compare page. */
+export function compareRevisionsModel(d: Omit<StarterDataset, "process" | "beamEnergyGeV" | "revisionNumber">, from: number, to: number): FigureModel {
+  const m = figureModelFromDataset({ ...d, revisionNumber: to, process: null, beamEnergyGeV: null });
+  const layer = (n: number, i: number) => ({
+    kind: "dataset" as const, id: `r${n}`, label: plainTextTex(`r${n}`), datasetId: d.id, revisionNumber: n,
+    colour: colourFor(i), marker: markerFor(i).id, normalisationUncertainty: null, compareWith: null,
+  });
+  return figureModelSchema.parse({
+    ...m, preset: "double-column", panelHeightMm: 60, legend: { position: "upper-right", statistics: "none" },
+    panels: [{ id: "main", strip: "none", layers: from === to ? [layer(to, 0)] : [layer(from, 0), layer(to, 1)] }],
+  });
+}

@@ -4,6 +4,8 @@ import { accessDataset, auditRefusedUpload, loadDatasetPage } from "~/.server/da
 import { MappingForm } from "~/.server/datasets/dataset-input.server";
 import { limitMessage } from "~/.server/datasets/dataset-json.server";
 import { listRevisions } from "~/.server/datasets/dataset-repository.server";
+import { DatasetNameTaken } from "~/.server/datasets/dataset-create.server";
+import { TIDY_REFUSAL, canTidyDataset, datasetNameSchema, renameDataset, retireDataset } from "~/.server/datasets/dataset-tidy.server";
 import { previewCsv } from "~/.server/datasets/csv/preview-csv.server";
 import { db } from "~/.server/platform/db.server";
 import { env } from "~/.server/platform/env.server";
@@ -17,6 +19,7 @@ import { MappingEditor } from "~/components/mapping-editor";
 import { ProblemList } from "~/components/problem-list";
 import { describeQuantity } from "~/components/quantity-labels";
 import { Button } from "~/components/ui/button";
+import { Field } from "~/components/ui/field";
 import { DemoBadge, Notice } from "~/components/ui/notice";
 import { columnMappingSchema, mappingFieldWords } from "~/datasets/column-mapping";
 import { equivalentEnergy, PROCESSES } from "~/engine";
@@ -36,21 +39,27 @@ export async function loader({ request, params }: Route.LoaderArgs) {
     mappingStep = { pending, fileName, gone: !file, preview };
   }
   const saved = dataset.mapping ? columnMappingSchema.safeParse(dataset.mapping) : null;
-  return { ...page, dataset, revisions, mappingStep, savedMapping: saved?.success ? saved.data : null, maxBytes: env.UPLOAD_MAX_BYTES };
+  const retiredBy = dataset.retired_by ? (await db.selectFrom("app_user").select("name").where("id", "=", dataset.retired_by).executeTakeFirst())?.name ?? null : null;
+  return { ...page, dataset, revisions, mappingStep, canTidy: canTidyDataset(page.role, page.user.id, dataset), retiredBy, savedMapping: saved?.success ? saved.data : null, maxBytes: env.UPLOAD_MAX_BYTES };
 }
 
 type ActionResult =
   | { kind: "problems"; problems: { row: number | null; column: number | null; header: string | null; message: string }[]; problemCount: number }
   | { kind: "identical"; number: number }
-  | { kind: "error"; message: string; fieldErrors?: Record<string, string> };
+  | { kind: "error"; message: string; fieldErrors?: Record<string, string> }
+  | { kind: "rename-error"; message: string };
 
 export async function action({ request, params, context }: Route.ActionArgs) {
+  const multipart = (request.headers.get("content-type") ?? "").startsWith("multipart/form-data");
+  const posted = multipart ? null : await request.formData();
+  const intent = posted?.get("intent");
+  if (intent === "rename" || intent === "retire") return tidy(request, params, clientIp(context), intent, posted!);
   const { user, dataset } = await accessDataset("page", request, params.manuscriptId, params.datasetId, "upload:revision");
   const quantity = quantitySchema.parse(dataset.quantity);
   const base = `/manuscripts/${params.manuscriptId}/datasets/${dataset.id}`;
   const common = { manuscriptId: params.manuscriptId, datasetId: dataset.id, userId: user.id, ip: clientIp(context), quantity };
 
-  if ((request.headers.get("content-type") ?? "").startsWith("multipart/form-data")) {
+  if (multipart) {
     const form = await receiveUploadForm(request);
     if (!form.ok) {
       const message = form.limit ? limitMessage(form.limit) : form.message;
@@ -72,7 +81,7 @@ export async function action({ request, params, context }: Route.ActionArgs) {
     throw redirect(`${base}?pending=${encodeURIComponent(token)}&file=${encodeURIComponent(upload.fileName)}`);
   }
 
-  const form = await request.formData();
+  const form = posted!;
   const fileName = String(form.get("fileName") ?? "");
   const pending = await openPending(String(form.get("pending") ?? ""), { userId: user.id, datasetId: dataset.id, fileName });
   if (!pending) return data<ActionResult>({ kind: "error", message: "That upload is no longer waiting (it was used, or the server restarted). Upload the file again." }, { status: 422 });
@@ -80,6 +89,26 @@ export async function action({ request, params, context }: Route.ActionArgs) {
   if (!mapping.ok) return data<ActionResult>({ kind: "error", message: "Some columns need attention.", fieldErrors: mapping.fieldErrors }, { status: 422 });
   const outcome = await ingestUpload({ ...common, tempPath: pending.tempPath, raw: { sha256: pending.sha256, bytes: pending.bytes, fileName }, mapping: mapping.value });
   return answer(outcome, base);
+}
+
+/** Rename or retire, for the corresponding author and the dataset's creator; both are audited. */
+async function tidy(request: Request, params: { manuscriptId: string; datasetId: string }, ip: string | null, intent: "rename" | "retire", form: FormData) {
+  const { user, role, dataset } = await accessDataset("page", request, params.manuscriptId, params.datasetId, "read:dataset");
+  if (!canTidyDataset(role, user.id, dataset)) throw data({ message: TIDY_REFUSAL }, { status: 403 });
+  const base = `/manuscripts/${params.manuscriptId}/datasets/${dataset.id}`;
+  if (intent === "retire") {
+    await retireDataset(db, { dataset, userId: user.id, ip });
+    throw redirect(`${base}?retired=1`);
+  }
+  const name = datasetNameSchema.safeParse(String(form.get("name") ?? ""));
+  if (!name.success) return data<ActionResult>({ kind: "rename-error", message: name.error.issues[0].message }, { status: 422 });
+  try {
+    await renameDataset(db, { dataset, userId: user.id, ip, name: name.data });
+  } catch (e) {
+    if (e instanceof DatasetNameTaken) return data<ActionResult>({ kind: "rename-error", message: e.message }, { status: 422 });
+    throw e;
+  }
+  throw redirect(`${base}?renamed=1`);
 }
 
 function answer(o: UploadOutcome, base: string) {
@@ -91,7 +120,8 @@ function answer(o: UploadOutcome, base: string) {
 }
 
 export default function DatasetPage() {
-  const { manuscript, role, can, dataset, revisions, mappingStep, savedMapping, maxBytes } = useLoaderData<typeof loader>();
+  const { manuscript, role, can, dataset, revisions, mappingStep, savedMapping, maxBytes, canTidy, retiredBy } = useLoaderData<typeof loader>();
+  const retired = dataset.retired_at != null;
   const result = useActionData<typeof action>() as ActionResult | undefined;
   const [params] = useSearchParams();
   const busy = useNavigation().state === "submitting";
@@ -102,6 +132,7 @@ export default function DatasetPage() {
       <p className="text-sm"><Link className="text-ink-soft underline underline-offset-4" to={`/manuscripts/${manuscript.id}/datasets`}>Datasets</Link> /</p>
       <div className="flex items-baseline gap-4">
         <h2 className="flex-1 text-2xl">{dataset.name}</h2>
+        {retired ? <span className="border border-rule-strong px-2 py-0.5 text-sm text-ink-soft">retired</span> : null}
         {dataset.is_demo ? <DemoBadge /> : null}
       </div>
       <p className="mt-1 text-sm text-ink-soft">
@@ -113,6 +144,12 @@ export default function DatasetPage() {
       {dataset.description ? <p className="mt-2 max-w-3xl text-sm">{dataset.description}</p> : null}
 
       <div className="mt-4 space-y-3">
+        {retired ? (
+          <Notice tone="caution">
+            <span data-testid="retired-notice">This dataset was retired on {new Date(dataset.retired_at!).toISOString().slice(0, 10)}{retiredBy ? ` by ${retiredBy}` : ""}. It no longer appears in the dataset lists and takes no new revisions; its revisions stay readable here, so figures that cite them keep working.</span>
+          </Notice>
+        ) : null}
+        {params.get("renamed") && !result ? <Notice tone="ok">Renamed.</Notice> : null}
         {uploaded && !result ? <Notice tone="ok">Stored as revision <strong className="font-mono">{uploaded}</strong>.</Notice> : null}
         {result?.kind === "identical" ? <Notice>The content is identical to <strong className="font-mono">r{result.number}</strong>: no new revision was created.</Notice> : null}
         {result?.kind === "error" ? <Notice tone="caution">{result.message}{result.fieldErrors ? <ul className="mt-1 list-disc pl-5">{Object.entries(result.fieldErrors).map(([k, v]) => <li key={k}>{k === "file" ? "file" : mappingFieldWords(k)}: {v}</li>)}</ul> : null}</Notice> : null}
@@ -136,13 +173,13 @@ export default function DatasetPage() {
           {revisions.length === 0 ? <p className="mt-3 text-ink-soft">No revision yet. Upload the measured values as CSV.</p> : (
             <table className="mt-3 w-full text-sm">
               <thead className="border-b border-rule text-left text-ink-soft">
-                <tr><th className="py-2 font-medium">Revision</th><th className="font-medium">Rows</th><th className="font-medium">Content fingerprint</th><th className="font-medium">File</th><th className="font-medium">Uploaded</th></tr>
+                <tr><th className="py-2 font-medium">Revision</th><th className="pr-4 text-right font-medium">Rows</th><th className="font-medium">Content fingerprint</th><th className="font-medium">File</th><th className="font-medium">Uploaded</th></tr>
               </thead>
               <tbody className="divide-y divide-rule">
                 {revisions.map((r) => (
                   <tr key={r.id}>
                     <td className="py-2"><Link className="font-mono underline underline-offset-2" to={`revisions/${r.number}`}>r{r.number}</Link></td>
-                    <td className="num">{r.row_count.toLocaleString("en")}</td>
+                    <td className="num pr-4 text-right">{r.row_count.toLocaleString("en")}</td>
                     <td><Fingerprint value={r.content_hash} /></td>
                     <td>{can["download:raw"] ? <a className="underline underline-offset-2" href={`/manuscripts/${manuscript.id}/datasets/${dataset.id}/revisions/${r.number}/raw`}>{r.raw_filename}</a> : r.raw_filename}</td>
                     <td className="num text-ink-soft">{new Date(r.created_at).toISOString().slice(0, 16).replace("T", " ")} · {r.uploaderName}</td>
@@ -159,7 +196,7 @@ export default function DatasetPage() {
             </Form>
           ) : null}
         </section>
-        {can["upload:revision"] ? (
+        {retired ? null : can["upload:revision"] ? (
           <aside aria-labelledby="up-h" className="border-l border-rule pl-6 max-lg:border-l-0 max-lg:pl-0">
             <h3 id="up-h" className="text-xl">Upload a revision</h3>
             <p className="mt-1 text-sm text-ink-soft">CSV in UTF-8 (with or without BOM), separated by commas, semicolons or tabs, with a header line. Up to {(maxBytes / 2 ** 20).toFixed(0)} MiB.</p>
@@ -184,6 +221,23 @@ export default function DatasetPage() {
           </aside>
         )}
       </div>
+
+      {canTidy && !retired ? (
+        <section aria-labelledby="tidy-h" className="mt-10 max-w-3xl border-t border-rule pt-6">
+          <h3 id="tidy-h" className="text-xl">Rename or retire</h3>
+          <p className="mt-1 text-sm text-ink-soft">Open to the corresponding author and to whoever created the dataset. Both are recorded in the manuscript's activity.</p>
+          <Form method="post" className="mt-3 flex flex-wrap items-end gap-3">
+            <input type="hidden" name="intent" value="rename" />
+            <Field label="New name" name="name" defaultValue={dataset.name} required maxLength={200} className="min-w-80" error={result?.kind === "rename-error" ? result.message : undefined} />
+            <Button type="submit" disabled={busy}>Rename</Button>
+          </Form>
+          <Form method="post" className="mt-5 flex flex-wrap items-center gap-3 text-sm">
+            <input type="hidden" name="intent" value="retire" />
+            <label className="flex items-center gap-2"><input type="checkbox" name="confirm" required /> Retire this dataset: it leaves the lists and takes no new revisions; its revisions stay readable for the figures that cite them.</label>
+            <Button kind="danger" type="submit" disabled={busy}>Retire</Button>
+          </Form>
+        </section>
+      ) : null}
     </>
   );
 }

@@ -33,7 +33,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
   const look = quickLookModel({ id: dataset.id, name: dataset.name, quantity: revision.quantity as unknown as QuantityDescription, revisionNumber: revision.number }, "log");
   // The quick look draws every point in the browser; beyond a few thousand it would only slow the page.
   const lookInputs = revision.row_count <= QUICK_LOOK_MAX_ROWS ? await loadDatasetInputs(db, dataset.manuscript_id, look) : null;
-  return { look, lookInputs, ...page, dataset: { id: dataset.id, name: dataset.name, quantity: dataset.quantity }, revision, rows, query: { ...q, page: current }, pages };
+  return { look, lookInputs, ...page, dataset: { id: dataset.id, name: dataset.name, quantity: dataset.quantity, retiredAt: dataset.retired_at }, revision, rows, query: { ...q, page: current }, pages };
 }
 
 type Row = Awaited<ReturnType<typeof loader>>["rows"][number];
@@ -71,6 +71,7 @@ export default function RevisionPage() {
       <ManuscriptNav manuscript={manuscript} role={role} can={can} />
       <p className="text-sm"><Link className="text-ink-soft underline underline-offset-4" to={`/manuscripts/${manuscript.id}/datasets/${dataset.id}`}>{dataset.name}</Link> /</p>
       <h2 className="mt-1 text-2xl">Revision <span className="font-mono">r{revision.number}</span></h2>
+      {dataset.retiredAt ? <p className="mt-2 text-sm" data-testid="retired-notice">The dataset “{dataset.name}” is retired: it no longer appears in the dataset lists, but this revision stays readable for the figures that cite it.</p> : null}
       <dl className="mt-2 grid grid-cols-[12rem_1fr] gap-y-1 text-sm">
         <dt className="text-ink-soft">quantity</dt><dd>{describeQuantity(revision.quantity)}</dd>
         <dt className="text-ink-soft">rows</dt><dd className="num">{revision.row_count.toLocaleString("en")}</dd>
@@ -87,7 +88,7 @@ export default function RevisionPage() {
           {table.getHeaderGroups().map((g) => (
             <tr key={g.id}>
               {g.headers.map((h) => (
-                <th key={h.id} className="py-2 pr-4 font-medium" aria-sort={h.column.getIsSorted() ? (h.column.getIsSorted() === "desc" ? "descending" : "ascending") : undefined}>
+                <th key={h.id} className="py-2 pr-4 text-right font-medium" aria-sort={h.column.getIsSorted() ? (h.column.getIsSorted() === "desc" ? "descending" : "ascending") : undefined}>
                   {h.column.getCanSort() ? (
                     <button type="button" onClick={h.column.getToggleSortingHandler()} className="hover:text-madder">
                       {flexRender(h.column.columnDef.header, h.getContext())} <Shape name={h.column.getIsSorted() === "asc" ? "up" : h.column.getIsSorted() === "desc" ? "down" : "up-down"} />
@@ -100,7 +101,7 @@ export default function RevisionPage() {
         </thead>
         <tbody className="num divide-y divide-rule font-mono text-xs">
           {table.getRowModel().rows.map((r) => (
-            <tr key={r.id}>{r.getVisibleCells().map((c) => <td key={c.id} className="py-1 pr-4">{flexRender(c.column.columnDef.cell, c.getContext())}</td>)}</tr>
+            <tr key={r.id}>{r.getVisibleCells().map((c) => <td key={c.id} className="py-1 pr-4 text-right">{flexRender(c.column.columnDef.cell, c.getContext())}</td>)}</tr>
           ))}
         </tbody>
       </table>

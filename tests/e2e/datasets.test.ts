@@ -68,6 +68,18 @@ describe("datasets in the browser", () => {
     await page.getByRole("button", { name: "Compare row by row" }).click();
     await page.waitForURL(/compare\?from=1&to=2/);
     await expect(page.getByTestId("diff-summary").textContent()).resolves.toBe("r1 → r2: 1 added, 0 removed, 1 changed, 2 unchanged");
+    // The changed bin [55, 65]: 0.95 ± 0.07 → 0.97 ± 0.07. By hand: Δ = +0.02, Δ/|y| = 2.11 %,
+    // σ = √(0.07² + 0.07²) = 0.0990, Δ/σ = 0.202. Symmetric errors are written once.
+    const changed = page.getByRole("table", { name: "Rows changed from r1 to r2" }).locator("tbody tr td");
+    await expect(changed.allTextContents()).resolves.toEqual([expect.stringMatching(/^\[55, 65\]/), "0.95 ± 0.07", "0.97 ± 0.07", "+0.02", "+2.11 %", "+0.202", ""]);
+    await expect(page.getByRole("table", { name: "Rows changed from r1 to r2" }).locator("tbody td").nth(5).evaluate((e) => getComputedStyle(e).textAlign)).resolves.toBe("right");
+    // The plot of both revisions: drawn by the figure renderer, one legend entry per revision.
+    const plot = page.getByTestId("quick-look");
+    await plot.waitFor();
+    await expect(plot.locator(":scope > svg").count()).resolves.toBe(1);
+    const plotText = (await plot.textContent()) ?? "";
+    expect(plotText).toContain("r1");
+    expect(plotText).toContain("r2");
     await page.screenshot({ path: path.join(dir, "compare.png"), fullPage: true });
     expect(errors).toEqual([]);
     await page.close();

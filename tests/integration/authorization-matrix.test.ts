@@ -196,6 +196,23 @@ const cases: Case[] = [
     call: (c) => c.upload(`/manuscripts/${manuscriptId}/datasets/${datasetId}`, angularCsv([fresh(), 1, 1, 1, 1])),
     denied: pageDenied, anonymous: 302,
   },
+  // Rename and retire: the corresponding author and the dataset's creator (here the same person;
+  // a creating contributor is covered in dataset-tidy.test.ts).
+  {
+    name: "POST /manuscripts/:id/datasets/:d (rename)", allowed: ["corresponding"], okStatus: 302,
+    call: (c) => c.post(`/manuscripts/${manuscriptId}/datasets/${datasetId}`, { intent: "rename", name: `matrix data ${fresh()}` }),
+    denied: pageDenied, anonymous: 302,
+  },
+  {
+    name: "PATCH /api/v1/…/datasets/:d (rename)", allowed: ["corresponding"],
+    call: (c) => c.request(`/api/v1/manuscripts/${manuscriptId}/datasets/${datasetId}`, { method: "PATCH", headers: { "content-type": "application/json" }, body: JSON.stringify({ name: `matrix data ${fresh()}` }) }),
+    denied: apiDenied, anonymous: 401,
+  },
+  {
+    name: "PATCH /api/v1/…/datasets/:d (retire)", allowed: ["corresponding"],
+    call: async (c) => c.request(`/api/v1/manuscripts/${manuscriptId}/datasets/${await createDatasetViaApi(clients.corresponding, manuscriptId, `matrix retire ${fresh()}`)}`, { method: "PATCH", headers: { "content-type": "application/json" }, body: JSON.stringify({ retired: true }) }),
+    denied: apiDenied, anonymous: 401,
+  },
   { name: "GET /manuscripts/:id/datasets/:d/compare", allowed: MEMBERS, call: (c) => c.get(`/manuscripts/${manuscriptId}/datasets/${datasetId}/compare?from=1&to=1`), denied: pageDenied, anonymous: 302 },
   { name: "GET /manuscripts/:id/datasets/:d/revisions/1", allowed: MEMBERS, call: (c) => c.get(`/manuscripts/${manuscriptId}/datasets/${datasetId}/revisions/1`), denied: pageDenied, anonymous: 302 },
   { name: "GET /manuscripts/:id/datasets/:d/revisions/1/raw", allowed: READERS_OF_RAW, call: (c) => c.get(`/manuscripts/${manuscriptId}/datasets/${datasetId}/revisions/1/raw`), denied: pageDenied, anonymous: 302 },

@@ -1,4 +1,6 @@
 import { Readable } from "node:stream";
+import { data } from "react-router";
+import { apiError } from "../platform/http/api-error.server";
 import { isUuid } from "~/is-uuid";
 import type { ManuscriptAction } from "~/permissions";
 import { recordAudit } from "../platform/audit.server";
@@ -32,6 +34,10 @@ export async function accessDataset(mode: Mode, request: Request, manuscriptId: 
   const user = mode === "api" ? await requireApiUser(request) : await requireUser(request);
   const role = await requirePermission(mode, user, manuscriptId, action);
   const dataset = await datasetOfManuscript(mode, manuscriptId, datasetId);
+  if (action === "upload:revision" && dataset.retired_at) {
+    const message = "This dataset is retired: it takes no new revisions. Its revisions stay readable.";
+    throw mode === "api" ? apiError(409, "dataset-retired", message) : data({ message }, { status: 409 });
+  }
   return { user, role, dataset };
 }
 

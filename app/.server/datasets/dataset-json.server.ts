@@ -2,7 +2,7 @@ import type { Dataset, DatasetRevision } from "../../../db/types";
 import type { UploadOutcome } from "./revision-upload.server";
 
 /** The JSON shapes of the datasets API, in one place. */
-export function datasetJson(d: Pick<Dataset, "id" | "name" | "quantity" | "mapping" | "process" | "beam_energy_gev" | "target" | "description" | "is_demo" | "created_at">, latestRevision?: number | null) {
+export function datasetJson(d: Pick<Dataset, "id" | "name" | "quantity" | "mapping" | "process" | "beam_energy_gev" | "target" | "description" | "is_demo" | "created_at"> & Partial<Pick<Dataset, "retired_at">>, latestRevision?: number | null) {
   return {
     id: d.id,
     name: d.name,
@@ -11,6 +11,8 @@ export function datasetJson(d: Pick<Dataset, "id" | "name" | "quantity" | "mappi
     metadata: { process: d.process, beamEnergyGeV: d.beam_energy_gev, target: d.target, description: d.description },
     demo: d.is_demo,
     createdAt: d.created_at,
+    /** When the dataset was retired (it then leaves the lists), or null. */
+    retiredAt: d.retired_at ?? null,
     ...(latestRevision !== undefined ? { latestRevision: latestRevision ?? null } : {}),
   };
 }

@@ -44,6 +44,8 @@ export async function listDatasets(db: Db, manuscriptId: string) {
       eb.selectFrom("dataset_revision").select((e2) => e2.fn.max("dataset_revision.number").as("n")).whereRef("dataset_revision.dataset_id", "=", "dataset.id").as("latestRevision"),
     ])
     .where("manuscript_id", "=", manuscriptId)
+    // A retired dataset leaves the lists; its page and revisions stay readable by address.
+    .where("retired_at", "is", null)
     .orderBy("created_at", "asc")
     .execute();
 }
