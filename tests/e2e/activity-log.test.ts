@@ -8,7 +8,7 @@ import { parse } from "csv-parse/sync";
 import type { Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { createAccount, createManuscriptWith } from "../support/accounts";
-import { launchBrowser } from "../support/browser";
+import { launchBrowser, signInAs } from "../support/browser";
 import { connect } from "../support/db";
 import { testEnv } from "../support/env";
 import { DEMO } from "../support/http";
@@ -38,20 +38,11 @@ afterAll(async () => {
 
 const shots = path.resolve("tests/e2e/screenshots");
 
-async function signInAs(page: Page, email: string) {
-  await browser.context.clearCookies();
-  await page.goto(`${testEnv.appUrl}/sign-in`);
-  await page.getByLabel("E-mail address").fill(email);
-  await page.getByLabel("Password").fill(DEMO.password);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await page.waitForURL(/\/manuscripts$/);
-}
-
 describe("the activity log in the browser", () => {
   it("reads the demo's log as sentences with links and short fingerprints", async () => {
     const page = await browser.context.newPage();
     await page.setViewportSize({ width: 1440, height: 900 });
-    await signInAs(page, DEMO.corresponding);
+    await signInAs(browser.context, page, DEMO.corresponding);
     await page.goto(`${testEnv.appUrl}/manuscripts/${DEMO.manuscriptId}/audit`);
     const body = await page.locator("tbody").innerText();
     expect(body).not.toMatch(/[{}]|"[a-zA-Z]+":/);
@@ -72,7 +63,7 @@ describe("the activity log in the browser", () => {
   it("filters by person in the address, pages, opens a fingerprint and downloads the filtered CSV", async () => {
     const page = await browser.context.newPage();
     await page.setViewportSize({ width: 1440, height: 900 });
-    await signInAs(page, DEMO.corresponding);
+    await signInAs(browser.context, page, DEMO.corresponding);
     await page.goto(`${testEnv.appUrl}/manuscripts/${manuscriptId}/audit`);
     await page.getByRole("status").filter({ hasText: "Entries 1–50 of 71, page 1 of 2." }).waitFor();
     const fingerprint = page.locator(`[data-fingerprint="${HASH}"]`);

@@ -9,7 +9,7 @@ import path from "node:path";
 import { unzipSync } from "fflate";
 import type { Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { launchBrowser } from "../support/browser";
+import { launchBrowser, signInAs } from "../support/browser";
 import { connect } from "../support/db";
 import { testEnv } from "../support/env";
 import { DEMO } from "../support/http";
@@ -26,15 +26,6 @@ afterAll(async () => {
 
 const shots = path.resolve("tests/e2e/screenshots");
 
-async function signInAs(page: Page, email: string) {
-  await browser.context.clearCookies();
-  await page.goto(`${testEnv.appUrl}/sign-in`);
-  await page.getByLabel("E-mail address").fill(email);
-  await page.getByLabel("Password").fill(DEMO.password);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await page.waitForURL(/\/manuscripts$/);
-}
-
 describe("exporting the demo's signed-off version", () => {
   it("lets the corresponding author export and download a bundle whose manifest verifies", async () => {
     mkdirSync(shots, { recursive: true });
@@ -47,11 +38,11 @@ describe("exporting the demo's signed-off version", () => {
     const versionUrl = `${testEnv.appUrl}/manuscripts/${DEMO.manuscriptId}/figures/${v1.figure_id}/versions/1`;
 
     // A co-author is told who exports.
-    await signInAs(page, DEMO.coauthor);
+    await signInAs(browser.context, page, DEMO.coauthor);
     await page.goto(versionUrl);
     await expect(page.getByTestId("export-why-not").textContent()).resolves.toBe("Only a corresponding author exports a version for the journal; your role here is co-author.");
 
-    await signInAs(page, DEMO.corresponding);
+    await signInAs(browser.context, page, DEMO.corresponding);
     await page.goto(versionUrl);
     await page.getByTestId("preflight").waitFor({ timeout: 120_000 });
     const checks = await page.locator('[data-testid^="preflight-"]').count();

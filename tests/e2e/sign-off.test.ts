@@ -7,7 +7,7 @@ import { mkdirSync } from "node:fs";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import type { Page } from "playwright-core";
-import { launchBrowser } from "../support/browser";
+import { launchBrowser, signInAs } from "../support/browser";
 import { testEnv } from "../support/env";
 import { DEMO } from "../support/http";
 import { linkIn, waitForMail } from "../support/mail";
@@ -19,15 +19,6 @@ beforeAll(async () => {
 afterAll(() => browser?.close());
 
 const shots = path.resolve("tests/e2e/screenshots");
-
-async function signInAs(page: Page, email: string) {
-  await browser.context.clearCookies();
-  await page.goto(`${testEnv.appUrl}/sign-in`);
-  await page.getByLabel("E-mail address").fill(email);
-  await page.getByLabel("Password").fill(DEMO.password);
-  await page.getByRole("button", { name: "Sign in" }).click();
-  await page.waitForURL(/\/manuscripts$/);
-}
 
 /** Waits until the draft is saved at a revision above `above`, and returns that revision. */
 async function waitSaved(page: Page, above = 0): Promise<number> {
@@ -61,7 +52,7 @@ describe("sealing and sign-off", () => {
     const title = `Annihilation photons, sign-off ${Date.now()}`;
 
     // The contributor composes a figure from the demo data and seals it.
-    await signInAs(page, DEMO.contributor);
+    await signInAs(browser.context, page, DEMO.contributor);
     await page.goto(`${testEnv.appUrl}/manuscripts/${DEMO.manuscriptId}/figures`);
     await page.getByLabel("Title").fill(title);
     await page.getByRole("button", { name: "Create figure" }).click();
@@ -86,7 +77,7 @@ describe("sealing and sign-off", () => {
     const request = await waitForMail(DEMO.coauthor, (m) => m.subject === `Sign-off requested: “${title}” v1`);
     expect(request.text).toContain("Positron annihilation in flight");
     expect(request.text).toMatch(/Fingerprint of v1: [0-9a-f]{4} [0-9a-f]{4} [0-9a-f]{4} …/);
-    await signInAs(page, DEMO.coauthor);
+    await signInAs(browser.context, page, DEMO.coauthor);
     const unread = Number(await page.getByTestId("inbox-count").textContent());
     expect(unread).toBeGreaterThanOrEqual(1);
     await page.goto(linkIn(request, `/figures/${figureId}/versions/1`));
@@ -102,7 +93,7 @@ describe("sealing and sign-off", () => {
     // The contributor is told, changes the beam energy and seals v2.
     const returned = await waitForMail(DEMO.contributor, (m) => m.subject === `Returned: “${title}” v1`);
     expect(returned.text).toContain("0.6 GeV as in the run plan");
-    await signInAs(page, DEMO.contributor);
+    await signInAs(browser.context, page, DEMO.contributor);
     await page.goto(figureUrl);
     await expect(page.getByTestId("version-row-1").textContent()).resolves.toMatch(/returned/);
     const energy = page.locator('[data-testid^="energy-"]').first();
@@ -127,7 +118,7 @@ describe("sealing and sign-off", () => {
     await page.screenshot({ path: path.join(shots, "version-compare.png"), fullPage: true });
 
     // The co-author signs v2 off from the inbox.
-    await signInAs(page, DEMO.coauthor);
+    await signInAs(browser.context, page, DEMO.coauthor);
     await page.goto(`${testEnv.appUrl}/inbox`);
     await page.getByRole("link", { name: `Sign-off requested: “${title}” v2` }).click();
     await page.waitForURL(/\/versions\/2$/);
@@ -137,7 +128,7 @@ describe("sealing and sign-off", () => {
 
     // The corresponding author sees v2 signed off, by e-mail and on the manuscript page.
     await waitForMail(DEMO.corresponding, (m) => m.subject === `Signed off: “${title}” v2`);
-    await signInAs(page, DEMO.corresponding);
+    await signInAs(browser.context, page, DEMO.corresponding);
     await page.goto(`${testEnv.appUrl}/manuscripts/${DEMO.manuscriptId}`);
     const cell = page.getByTestId(`figure-state-${figureId}`);
     await expect(cell.textContent()).resolves.toBe("v2signed off");

@@ -5,14 +5,19 @@ import { isUuid } from "~/is-uuid";
 import { db, type Db } from "../platform/db.server";
 import { type Mode, notFound, requireApiUser, requirePermission, requireUser } from "../platform/http/guards.server";
 
-export async function findExport(database: Db, exportId: string) {
-  if (!isUuid(exportId)) return undefined;
+/** Exports with their version's figure, number and fingerprint and the requester's name. */
+function exportsWithVersion(database: Db) {
   return database
     .selectFrom("figure_export")
     .innerJoin("figure_version", "figure_version.id", "figure_export.version_id")
     .innerJoin("app_user", "app_user.id", "figure_export.requested_by")
     .selectAll("figure_export")
-    .select(["figure_version.figure_id", "figure_version.number", "figure_version.fingerprint", "app_user.name as requesterName"])
+    .select(["figure_version.figure_id", "figure_version.number", "figure_version.fingerprint", "app_user.name as requesterName"]);
+}
+
+export async function findExport(database: Db, exportId: string) {
+  if (!isUuid(exportId)) return undefined;
+  return exportsWithVersion(database)
     .where("figure_export.id", "=", exportId)
     .executeTakeFirst();
 }
@@ -21,12 +26,7 @@ export type ExportRow = NonNullable<Awaited<ReturnType<typeof findExport>>>;
 
 /** The newest exports of a version, newest first. */
 export async function listVersionExports(database: Db, versionId: string, limit = 5) {
-  return database
-    .selectFrom("figure_export")
-    .innerJoin("figure_version", "figure_version.id", "figure_export.version_id")
-    .innerJoin("app_user", "app_user.id", "figure_export.requested_by")
-    .selectAll("figure_export")
-    .select(["figure_version.figure_id", "figure_version.number", "figure_version.fingerprint", "app_user.name as requesterName"])
+  return exportsWithVersion(database)
     .where("figure_export.version_id", "=", versionId)
     .orderBy("figure_export.requested_at", "desc")
     .orderBy("figure_export.id")

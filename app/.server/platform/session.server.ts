@@ -51,17 +51,25 @@ export async function getSession(request: Request) {
   return session;
 }
 
-/**
- * The signed-in user's id, or null for no, tampered (bad signature), expired or ended sessions
- * (signed out, password reset, account disabled, "sign out everywhere").
- */
-export async function sessionUserId(request: Request): Promise<string | null> {
+/** The cookie's user and session ids, or null when it is missing, tampered, malformed or too old. */
+async function liveClaims(request: Request): Promise<{ userId: string; sessionId: string } | null> {
   const session = await getSession(request);
   const userId = session.get("userId");
   const issuedAt = session.get("issuedAt");
   const sessionId = session.get("sessionId");
   if (!userId || typeof issuedAt !== "number" || typeof sessionId !== "string" || !isUuid(sessionId)) return null;
   if (Date.now() - issuedAt > SESSION_MAX_AGE_S * 1000) return null;
+  return { userId, sessionId };
+}
+
+/**
+ * The signed-in user's id, or null for no, tampered (bad signature), expired or ended sessions
+ * (signed out, password reset, account disabled, "sign out everywhere").
+ */
+export async function sessionUserId(request: Request): Promise<string | null> {
+  const claims = await liveClaims(request);
+  if (!claims) return null;
+  const { userId, sessionId } = claims;
   const row = await db
     .selectFrom("user_session")
     .select("id")
@@ -77,12 +85,9 @@ export async function sessionUserId(request: Request): Promise<string | null> {
  * or unconfirmed account signs nobody in). Null for no, tampered, expired or ended sessions.
  */
 export async function sessionUser(request: Request): Promise<SessionUser | null> {
-  const session = await getSession(request);
-  const userId = session.get("userId");
-  const issuedAt = session.get("issuedAt");
-  const sessionId = session.get("sessionId");
-  if (!userId || typeof issuedAt !== "number" || typeof sessionId !== "string" || !isUuid(sessionId)) return null;
-  if (Date.now() - issuedAt > SESSION_MAX_AGE_S * 1000) return null;
+  const claims = await liveClaims(request);
+  if (!claims) return null;
+  const { userId, sessionId } = claims;
   const row = await db
     .selectFrom("user_session")
     .innerJoin("app_user", "app_user.id", "user_session.user_id")
