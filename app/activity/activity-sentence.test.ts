@@ -87,8 +87,36 @@ describe("activitySentence", () => {
 
   it("says when a person, dataset or figure is no longer there, and falls back to the recorded name", () => {
     expect(sentenceText(sentence("member-removed", { userId: "55555555-5555-4555-8555-555555555555" }))).toBe("Ada removed someone no longer registered from the manuscript.");
-    expect(sentenceText(sentence("figure-created", { figureId: "66666666-6666-4666-8666-666666666666", title: "Old title" }))).toBe("Ada created the figure “Old title”.");
+    expect(sentenceText(sentence("figure-created", { figureId: "66666666-6666-4666-8666-666666666666", title: "Old title" }))).toBe("Ada created the figure “Old title” (no longer in this manuscript).");
     expect(sentenceText(sentence("sign-out", {}, null))).toBe("Someone signed out.");
+  });
+
+  it("never links to a dataset, revision, figure or version that is no longer in the manuscript", () => {
+    const GONE_DATASET = "77777777-7777-4777-8777-777777777777";
+    const GONE_FIGURE = "88888888-8888-4888-8888-888888888888";
+    const links = (parts: SentencePart[]) => parts.filter((p): p is { text: string; href: string } => typeof p === "object" && "href" in p);
+
+    const uploaded = sentence("revision-uploaded", { datasetId: GONE_DATASET, revision: "r3", contentHash: HASH, rows: 5 });
+    expect(sentenceText(uploaded)).toBe(`Ada uploaded r3 of a dataset no longer in this manuscript (5 rows), content ${HASH}.`);
+    expect(links(uploaded)).toEqual([]);
+
+    const renamed = sentence("dataset-created", { datasetId: GONE_DATASET, name: "Pilot run" });
+    expect(sentenceText(renamed)).toBe("Ada created the dataset “Pilot run” (no longer in this manuscript).");
+    expect(links(renamed)).toEqual([]);
+
+    const sealed = sentence("version-sealed", { figureId: GONE_FIGURE, number: 4, fingerprint: HASH, title: "Draft plot" });
+    expect(sentenceText(sealed)).toBe(`Ada sealed v4 of “Draft plot” (no longer in this manuscript), fingerprint ${HASH}.`);
+    expect(links(sealed)).toEqual([]);
+
+    // The same rows for a dataset and figure that are there keep their links.
+    expect(links(sentence("revision-uploaded", { datasetId: DATASET, revision: "r3", contentHash: HASH, rows: 5 })).map((l) => l.href)).toEqual([
+      `/manuscripts/${M}/datasets/${DATASET}/revisions/3`,
+      `/manuscripts/${M}/datasets/${DATASET}`,
+    ]);
+    expect(links(sentence("version-sealed", { ...version, fingerprint: HASH })).map((l) => l.href)).toEqual([
+      `/manuscripts/${M}/figures/${FIGURE}/versions/2`,
+      `/manuscripts/${M}/figures/${FIGURE}`,
+    ]);
   });
 
   it("names the exported version when the server found it from the export's id", () => {

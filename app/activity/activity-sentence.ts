@@ -122,26 +122,38 @@ class Builder {
   person(id: string | null, fallback = "someone no longer registered") {
     return this.text(id ? (this.names.people[id] ?? fallback) : fallback);
   }
+  /**
+   * The dataset or figure a row names: its current name, quoted and linked, while it is in this
+   * manuscript; once it is not (or the row recorded no id), the name the row recorded, unlinked,
+   * and said to be gone; without either, a plain placeholder. A link is never made to a page
+   * that would not be there.
+   */
+  private named(kind: "dataset" | "figure", id: string | null, recorded: string | null) {
+    const current = id !== null ? (kind === "dataset" ? this.names.datasets[id] : this.names.figures[id]) : undefined;
+    if (current !== undefined && this.m) return this.link(`“${current}”`, `${this.m}/${kind}s/${id}`);
+    if (current !== undefined) return this.text(`“${current}”`);
+    if (id === null) return this.text(recorded !== null ? `“${recorded}”` : `a ${kind}`);
+    return this.text(recorded !== null ? `“${recorded}” (no longer in this manuscript)` : `a ${kind} no longer in this manuscript`);
+  }
+  private exists(kind: "dataset" | "figure", id: string | null): id is string {
+    return id !== null && (kind === "dataset" ? this.names.datasets[id] : this.names.figures[id]) !== undefined;
+  }
   dataset() {
-    const id = str(this.d, "datasetId");
-    const name = (id && this.names.datasets[id]) ?? str(this.d, "name") ?? "a dataset";
-    return this.link(`“${name}”`, id && this.m ? `${this.m}/datasets/${id}` : null);
+    return this.named("dataset", str(this.d, "datasetId"), str(this.d, "name"));
   }
   revision() {
     const id = str(this.d, "datasetId");
     const r = str(this.d, "revision");
     const n = r?.replace(/^r/, "");
-    return this.link(r ?? "a revision", id && n && this.m ? `${this.m}/datasets/${id}/revisions/${n}` : null);
+    return this.link(r ?? "a revision", this.exists("dataset", id) && n && this.m ? `${this.m}/datasets/${id}/revisions/${n}` : null);
   }
   figure() {
-    const id = str(this.d, "figureId");
-    const title = (id && this.names.figures[id]) ?? str(this.d, "title") ?? "a figure";
-    return this.link(`“${title}”`, id && this.m ? `${this.m}/figures/${id}` : null);
+    return this.named("figure", str(this.d, "figureId"), str(this.d, "title"));
   }
-  /** vN of the figure, linked to the version's page. */
+  /** vN of the figure, linked to the version's page while the figure is there. */
   version(n: number | null) {
     const id = str(this.d, "figureId");
-    return this.link(n === null ? "a version" : `v${n}`, id && n !== null && this.m ? `${this.m}/figures/${id}/versions/${n}` : null);
+    return this.link(n === null ? "a version" : `v${n}`, this.exists("figure", id) && n !== null && this.m ? `${this.m}/figures/${id}/versions/${n}` : null);
   }
   /** "export of v2 of “Figure”", or "export" when the version is not known. */
   exportOf(d: Detail) {
