@@ -1,7 +1,8 @@
 import { useId, useState } from "react";
 import { Form } from "react-router";
-import type { ColumnMapping } from "~/datasets/column-mapping";
+import { mappedColumnEntries, type ColumnMapping } from "~/datasets/column-mapping";
 import type { MappingGuess } from "~/datasets/guess-mapping";
+import { FileCell, problemsByCell } from "./problem-list";
 import { Button } from "./ui/button";
 
 type Preview = { headers: string[]; rows: { line: number; fields: string[] }[]; more: boolean; delimiter: string; guess: MappingGuess };
@@ -13,8 +14,9 @@ function errDefaults(e: ColumnMapping["stat"] | undefined): { kind: ErrKind; sym
 }
 
 /** The mapping step: the first rows of the file, and which column holds which quantity. */
-export function MappingEditor({ pending, fileName, preview, saved, busy, errors = {} }: { pending: string; fileName: string; preview: Preview; saved: ColumnMapping | null; busy: boolean; errors?: Record<string, string> }) {
-  const start: Partial<ColumnMapping> = saved && saved.x && preview.headers.includes(saved.x) ? saved : preview.guess.mapping;
+export function MappingEditor({ pending, fileName, preview, saved, busy, errors = {}, problems = [] }: { pending: string; fileName: string; preview: Preview; saved: ColumnMapping | null; busy: boolean; errors?: Record<string, string>; problems?: { row: number | null; column: number | null; message: string }[] }) {
+  const marked = problemsByCell(problems);
+  const start: Partial<ColumnMapping> = saved && mappedColumnEntries(saved).every(([, name]) => preview.headers.includes(name)) ? saved : preview.guess.mapping;
   const [stat, setStat] = useState<ErrKind>(errDefaults(start.stat).kind);
   const [syst, setSyst] = useState<ErrKind>(errDefaults(start.syst).kind);
   const s = errDefaults(start.stat);
@@ -30,7 +32,7 @@ export function MappingEditor({ pending, fileName, preview, saved, busy, errors 
         <table className="text-sm">
           <thead className="border-b border-rule text-left"><tr><th className="pr-4 font-normal text-ink-faint">line</th>{preview.headers.map((h, i) => <th key={i} className="pr-4 font-medium"><span className="font-mono text-xs text-ink-faint">{i + 1}</span> {h}</th>)}</tr></thead>
           <tbody className="font-mono text-xs">
-            {preview.rows.map((r) => <tr key={r.line}><td className="pr-4 text-ink-faint">{r.line}</td>{r.fields.map((f, i) => <td key={i} className="num pr-4">{f}</td>)}</tr>)}
+            {preview.rows.map((r) => <tr key={r.line}><td className="pr-4 text-ink-faint">{r.line}</td>{r.fields.map((f, i) => <FileCell key={i} text={f} said={marked.get(`${r.line}:${i + 1}`)} className="pr-4" />)}</tr>)}
           </tbody>
         </table>
         {preview.more ? <p className="text-xs text-ink-faint">… more rows</p> : null}
@@ -38,7 +40,8 @@ export function MappingEditor({ pending, fileName, preview, saved, busy, errors 
       <Form method="post" className="mt-4 grid grid-cols-3 gap-4 text-sm max-lg:grid-cols-2">
         <input type="hidden" name="pending" value={pending} />
         <input type="hidden" name="fileName" value={fileName} />
-        <Column label="x (required)" name="x" headers={preview.headers} value={start.x} error={errors["x"]} />
+        <Column label="x" name="x" headers={preview.headers} value={start.x} error={errors["x"]} optional
+          hint="Required, unless both bin edges are mapped: each point is then plotted at its bin's centre." />
         <Column label="bin low edge" name="xLow" headers={preview.headers} value={start.xLow} error={errors["xLow"]} optional />
         <Column label="bin high edge" name="xHigh" headers={preview.headers} value={start.xHigh} error={errors["xHigh"]} optional />
         <Column label="y (required)" name="y" headers={preview.headers} value={start.y} error={errors["y"]} />
@@ -50,16 +53,18 @@ export function MappingEditor({ pending, fileName, preview, saved, busy, errors 
   );
 }
 
-function Column({ label, name, headers, value, optional, error }: { label: string; name: string; headers: string[]; value?: string; optional?: boolean; error?: string }) {
+function Column({ label, name, headers, value, optional, error, hint }: { label: string; name: string; headers: string[]; value?: string; optional?: boolean; error?: string; hint?: string }) {
   const id = useId();
+  const described = [hint ? `${id}-hint` : null, error ? `${id}-error` : null].filter(Boolean).join(" ") || undefined;
   return (
     <div className="flex flex-col gap-1">
       <label htmlFor={id} className="font-medium">{label}</label>
-      <select id={id} name={name} defaultValue={value ?? ""} aria-invalid={error ? true : undefined} aria-describedby={error ? `${id}-error` : undefined}
+      <select id={id} name={name} defaultValue={value ?? ""} aria-invalid={error ? true : undefined} aria-describedby={described}
         className={`border bg-paper px-2 py-1 ${error ? "border-madder" : "border-rule-strong"}`}>
         <option value="">{optional ? "— none" : "— choose a column"}</option>
         {headers.map((h, i) => <option key={i} value={h}>{i + 1}: {h}</option>)}
       </select>
+      {hint ? <p id={`${id}-hint`} className="text-ink-soft">{hint}</p> : null}
       {error ? <p id={`${id}-error`} role="alert" className="text-madder">{error.charAt(0).toUpperCase() + error.slice(1)}.</p> : null}
     </div>
   );

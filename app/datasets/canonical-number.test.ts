@@ -1,6 +1,6 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import { canonicalNumber, canonicalTextFromPrecision, canonicalTextOfShortDecimal, formatCanonicalNumber } from "./canonical-number";
+import { canonicalMidpoint, canonicalNumber, canonicalTextFromPrecision, canonicalTextOfShortDecimal, formatCanonicalNumber } from "./canonical-number";
 
 describe("canonical numbers", () => {
   it("writes the same number written differently the same way", () => {
@@ -81,5 +81,74 @@ describe("fast canonical texts agree with formatting the canonical value", () =>
     for (const v of [1.5, 1e-6, 9.99999999999e-7, 1e-7, 123456789012, 1.5e12, 1e21, -3.85228419243e-7, 100]) {
       expect(canonicalTextFromPrecision(v.toPrecision(12)), String(v)).toBe(formatCanonicalNumber(v));
     }
+  });
+});
+
+/**
+ * The exact midpoint of two decimal texts as a fraction num / 10^scale / 2, in BigInt, rounded to
+ * 12 significant digits with ties away from zero: an implementation independent of decimal.js,
+ * which canonicalMidpoint uses.
+ */
+function midpointByBigInt(a: string, b: string): string {
+  const parse = (t: string) => {
+    const [mant, exp = "0"] = t.toLowerCase().split("e");
+    const neg = mant.startsWith("-");
+    const [int, frac = ""] = mant.replace(/^[-+]/, "").split(".");
+    return { digits: BigInt(int + frac) * (neg ? -1n : 1n), exp: Number(exp) - frac.length };
+  };
+  const x = parse(a);
+  const y = parse(b);
+  const e = Math.min(x.exp, y.exp);
+  // sum = s × 10^e exactly; the midpoint is 5s × 10^(e−1).
+  const s = (x.digits * 10n ** BigInt(x.exp - e) + y.digits * 10n ** BigInt(y.exp - e)) * 5n;
+  if (s === 0n) return "0";
+  const neg = s < 0n;
+  let m = neg ? -s : s;
+  let exp = e - 1;
+  const digits = m.toString().length;
+  if (digits > 12) {
+    const cut = 10n ** BigInt(digits - 12);
+    const q = m / cut;
+    const r = m % cut;
+    m = 2n * r >= cut ? q + 1n : q;
+    exp += digits - 12;
+  }
+  return String(Number(`${neg ? "-" : ""}${m}e${exp}`));
+}
+
+describe("the centre of a bin (canonicalMidpoint)", () => {
+  it("is the midpoint of the edges in worked examples", () => {
+    // Worked by hand.
+    expect(canonicalMidpoint("20", "30")).toEqual({ value: 25, text: "25" });
+    expect(canonicalMidpoint("30", "45")).toEqual({ value: 37.5, text: "37.5" });
+    expect(canonicalMidpoint("-0.25", "-0.09")).toEqual({ value: -0.17, text: "-0.17" });
+    expect(canonicalMidpoint("-0.5", "0.5")).toEqual({ value: 0, text: "0" });
+    expect(canonicalMidpoint("1e-7", "3e-7")).toEqual({ value: 2e-7, text: "2e-7" });
+    // 0.1000000000005 has 13 digits; the tie goes away from zero, as toPrecision rounds.
+    expect(canonicalMidpoint("0.1", "0.100000000001").text).toBe("0.100000000001");
+    expect(canonicalMidpoint("-0.100000000001", "-0.1").text).toBe("-0.100000000001");
+  });
+
+  it("rounds the exact midpoint once, not an intermediate sum", () => {
+    // The exact midpoint of 9.99999999999e-13 and 2 is 1.0000000000004999999999995, below the
+    // rounding point 1.0000000000005, so it is 1. Rounding the sum first to 20 digits (decimal.js's
+    // default precision) would give 1.0000000000005000000 and then 1.00000000001.
+    expect(canonicalMidpoint("9.99999999999e-13", "2").text).toBe("1");
+  });
+
+  it("agrees with an exact BigInt midpoint and lies within the bin, for random 12-digit edges", () => {
+    const edge = fc
+      .tuple(fc.bigInt({ min: -(10n ** 12n) + 1n, max: 10n ** 12n - 1n }), fc.integer({ min: -30, max: 25 }))
+      .map(([m, e]) => String(Number(`${m}e${e}`)));
+    fc.assert(
+      fc.property(edge, edge, (a, b) => {
+        const mid = canonicalMidpoint(a, b);
+        expect(mid.text).toBe(midpointByBigInt(a, b));
+        expect(mid.text).toBe(String(mid.value));
+        expect(mid.value).toBeGreaterThanOrEqual(Math.min(Number(a), Number(b)));
+        expect(mid.value).toBeLessThanOrEqual(Math.max(Number(a), Number(b)));
+      }),
+      { numRuns: 2000 },
+    );
   });
 });

@@ -1,3 +1,5 @@
+import Decimal from "decimal.js";
+
 /** Significant digits kept in the normal form: far above any measurement, below float noise. */
 export const CANONICAL_DIGITS = 12;
 
@@ -53,4 +55,21 @@ export function canonicalTextFromPrecision(p: string): string {
   while (p.charCodeAt(end - 1) === 48 /* "0" */) end--;
   if (p.charCodeAt(end - 1) === 46 /* "." */) end--;
   return e === -1 ? p.slice(0, end) : p.slice(0, end) + p.slice(e);
+}
+
+// Enough digits that the sum of two doubles' decimals (exponents from −324 to 308, 12 digits
+// each) and its half are exact: the one rounding is the final one to 12 digits.
+const ExactDecimal = Decimal.clone({ precision: 1000 });
+
+/**
+ * The centre of a bin given by the canonical texts of its edges: the exact decimal midpoint
+ * (lo + hi) / 2, rounded to 12 significant digits with ties away from zero (as `toPrecision`
+ * rounds an exact value), as a canonical value and its text. Decimal arithmetic, not doubles,
+ * so that the centre does not depend on how the edges' sum happens to round in binary
+ * (docs/decisions/0013-bins-without-a-centre.md).
+ */
+export function canonicalMidpoint(loText: string, hiText: string): { value: number; text: string } {
+  const mid = new ExactDecimal(loText).plus(hiText).div(2).toSignificantDigits(CANONICAL_DIGITS, Decimal.ROUND_HALF_UP);
+  const value = mid.isZero() ? 0 : mid.toNumber();
+  return { value, text: String(value) };
 }

@@ -19,12 +19,14 @@ export type ErrorMapping = z.infer<typeof errorMappingSchema>;
 /**
  * Which header names hold x (with an optional bin [xLow, xHigh]), y and the statistical and
  * systematic uncertainties. Errors are magnitudes in the unit of y; an asymmetric error has
- * a minus and a plus column, both non-negative.
+ * a minus and a plus column, both non-negative. x may be left out when both bin edges are
+ * mapped: each point is then its bin, plotted at the bin's centre
+ * (docs/decisions/0013-bins-without-a-centre.md).
  */
 export const columnMappingSchema = z
   .object(
     {
-    x: columnName,
+    x: columnName.optional(),
     xLow: columnName.optional(),
     xHigh: columnName.optional(),
     y: columnName,
@@ -34,6 +36,13 @@ export const columnMappingSchema = z
     { error: 'a mapping is an object naming the columns, such as { "x": "theta_cm", "y": "dsdo_ub_sr" }' },
   )
   .superRefine((m, ctx) => {
+    if (m.x === undefined && (m.xLow === undefined || m.xHigh === undefined)) {
+      ctx.addIssue({
+        code: "custom",
+        path: ["x"],
+        message: "choose the column that holds x, or map both edges of the bin (each point is then plotted at its bin's centre)",
+      });
+    }
     if ((m.xLow === undefined) !== (m.xHigh === undefined)) {
       ctx.addIssue({
         code: "custom",
@@ -62,7 +71,7 @@ export type ColumnMapping = z.infer<typeof columnMappingSchema>;
  * the dataset normal form (docs/decisions/0004-dataset-normal-form.md), so do not reorder.
  */
 export function mappedColumnEntries(m: ColumnMapping): [string, string][] {
-  const entries: [string, string][] = [["x", m.x]];
+  const entries: [string, string][] = m.x !== undefined ? [["x", m.x]] : [];
   if (m.xLow !== undefined) entries.push(["xLow", m.xLow]);
   if (m.xHigh !== undefined) entries.push(["xHigh", m.xHigh]);
   entries.push(["y", m.y]);

@@ -24,9 +24,13 @@ export function normalFormHeader(mapping: ColumnMapping, quantity: QuantityDescr
   );
 }
 
-/** Column names of the normal form's rows; a symmetric error is one column. */
+/**
+ * Column names of the normal form's rows; a symmetric error is one column. An x that the file
+ * does not give (bins without a centre) is not written: the normal form holds what the file
+ * says, and the centre is derived from it (docs/decisions/0013-bins-without-a-centre.md).
+ */
 export function normalFormColumns(mapping: ColumnMapping): string[] {
-  const columns = ["x"];
+  const columns = mapping.x !== undefined ? ["x"] : [];
   if (mapping.xLow !== undefined) columns.push("x_low", "x_high");
   columns.push("y");
   for (const key of ["stat", "syst"] as const) {
@@ -43,7 +47,7 @@ export function normalFormColumns(mapping: ColumnMapping): string[] {
  * its minus and plus slots with the same value but is written once.
  */
 export function normalFormSlots(mapping: ColumnMapping): number[] {
-  const slots: number[] = [SLOT.x];
+  const slots: number[] = mapping.x !== undefined ? [SLOT.x] : [];
   if (mapping.xLow !== undefined) slots.push(SLOT.xLow, SLOT.xHigh);
   slots.push(SLOT.y);
   if (mapping.stat !== undefined) {
@@ -55,6 +59,15 @@ export function normalFormSlots(mapping: ColumnMapping): number[] {
     else slots.push(SLOT.systMinus, SLOT.systPlus);
   }
   return slots;
+}
+
+/**
+ * The slots kept per row for the database: those of the normal form and, always, x (the bin's
+ * centre when the file gives only the edges).
+ */
+export function storedSlots(mapping: ColumnMapping): number[] {
+  const slots = normalFormSlots(mapping);
+  return slots.includes(SLOT.x) ? slots : [SLOT.x, ...slots];
 }
 
 /** One row of the normal form: canonical numbers joined by commas, ending in "\n". */

@@ -1,7 +1,7 @@
-import { CANONICAL_DIGITS, canonicalTextFromPrecision, canonicalTextOfShortDecimal } from "./canonical-number";
+import { CANONICAL_DIGITS, canonicalMidpoint, canonicalTextFromPrecision, canonicalTextOfShortDecimal } from "./canonical-number";
 import { mappedColumnEntries, type ColumnMapping } from "./column-mapping";
 import type { DatasetProblem } from "./dataset-problem";
-import { normalFormSlots, SLOT } from "./normal-form";
+import { normalFormSlots, SLOT, storedSlots } from "./normal-form";
 import { parseNumberField, readPlainDecimal, readShiftedDecimal, shiftDecimalText, type NumberFieldResult } from "./parse-number-field";
 import type { ProblemCollector } from "./problem-collector";
 import { X_LABELS, type QuantityDescription, type XKind } from "./quantity";
@@ -98,8 +98,12 @@ export function createRowValidator(
 export class RowValidator {
   /** Slots of `out` that the normal form writes, in order. */
   readonly slots: readonly number[];
+  /** Slots of `out` kept for the database: the normal form's and x, derived or not. */
+  readonly storedSlots: readonly number[];
   readonly scales: QuantityScales;
   readonly hasBins: boolean;
+  /** No x column: x is each bin's centre (docs/decisions/0013-bins-without-a-centre.md). */
+  readonly derivesX: boolean;
   private readonly xKind: XKind;
   private readonly fieldIndex: Int32Array;
   private readonly shifts: Int32Array;
@@ -124,7 +128,9 @@ export class RowValidator {
   ) {
     this.scales = resolveQuantityScales(quantity);
     this.slots = normalFormSlots(mapping);
+    this.storedSlots = storedSlots(mapping);
     this.hasBins = mapping.xLow !== undefined;
+    this.derivesX = mapping.x === undefined;
     this.xKind = quantity.x.kind;
     this.fieldIndex = new Int32Array(8).fill(-1);
     this.shifts = new Int32Array(8);
@@ -271,6 +277,10 @@ export class RowValidator {
           ),
         );
         ok = false;
+      } else if (this.derivesX) {
+        const centre = canonicalMidpoint(this.text[SLOT.xLow], this.text[SLOT.xHigh]);
+        out[SLOT.x] = centre.value;
+        this.text[SLOT.x] = centre.text;
       } else if (out[SLOT.x] < lo || out[SLOT.x] > hi) {
         problems.add(
           this.problem(

@@ -97,6 +97,28 @@ describe("computeFigureData: measured points in the figure's axes", () => {
     });
   });
 
+  it("compares a bin as a whole: where its point is drawn (the centre of a file without x, or any x in the bin) does not change the ratio (docs/decisions/0013-bins-without-a-centre.md)", () => {
+    // Data = the CM bin mean from the engine's σ in an acceptance (2σ: one of two identical
+    // photons in the bin) over the bin's solid angle, not from the bin-mean code.
+    const energy = { kind: "kinetic", value: 0.5, unit: "GeV" };
+    const bins: [number, number][] = [[20, 40], [60, 90]];
+    const measured = bins.map(([lo, hi]) => {
+      const sigma = 2 * runPrediction({ process: "pair-annihilation", frame: "cm", energy: { kinetic: 0.5 }, observable: "sigma", acceptance: { thetaDeg: [lo, hi] }, unit: "GeV^-2" }).values[0];
+      return sigma / (2 * Math.PI * (Math.cos((lo * Math.PI) / 180) - Math.cos((hi * Math.PI) / 180)));
+    });
+    const m = model({ frame: "cm" }, {}, { process: "pair-annihilation", energy });
+    const quantity = { x: { kind: "theta_cm_deg" as const }, y: { kind: "dsigma_domega" as const, unit: "ub/sr" } };
+    for (const at of [(lo: number, hi: number) => (lo + hi) / 2, (lo: number) => lo]) {
+      const rows = bins.map(([lo, hi], i) => ({ ...row(at(lo, hi), measured[i]), xLow: lo, xHigh: hi }));
+      const d = computeFigureData(m, { [datasetInputKey(ID, 1)]: dataset(quantity, rows) }).panels[0].datasets[0];
+      bins.forEach(([lo, hi], i) => {
+        expect(d.points[i].x).toBe(at(lo, hi));
+        expect(d.points[i].bin).toEqual([lo, hi]);
+        close(d.ratio[i].value, 1, 1e-6, `ratio in the bin [${lo}°, ${hi}°] drawn at ${at(lo, hi)}°`);
+      });
+    }
+  });
+
   it("says why a dataset cannot be drawn: an energy dataset on an angle axis, a missing revision", () => {
     const m = model({}, {}, compton);
     const energyData = dataset({ x: { kind: "sqrt_s", unit: "GeV" }, y: { kind: "sigma", unit: "nb" } }, [row(1, 1)]);

@@ -44,7 +44,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 }
 
 type ActionResult =
-  | { kind: "problems"; problems: { row: number | null; column: number | null; header: string | null; message: string }[]; problemCount: number }
+  | { kind: "problems"; problems: { row: number | null; column: number | null; header: string | null; message: string }[]; problemCount: number; refused: { headers: string[]; rows: { line: number; fields: string[] }[] } | null }
   | { kind: "identical"; number: number }
   | { kind: "error"; message: string; fieldErrors?: Record<string, string> }
   | { kind: "rename-error"; message: string };
@@ -115,7 +115,7 @@ function answer(o: UploadOutcome, base: string) {
   if (o.kind === "created") throw redirect(`${base}?uploaded=r${o.revision.number}`);
   if (o.kind === "identical") return data<ActionResult>({ kind: "identical", number: o.revision.number });
   if (o.kind === "limit") return data<ActionResult>({ kind: "error", message: limitMessage(o.limit) }, { status: 413 });
-  if (o.kind === "problems") return data<ActionResult>({ kind: "problems", problems: o.problems, problemCount: o.problemCount }, { status: 422 });
+  if (o.kind === "problems") return data<ActionResult>({ kind: "problems", problems: o.problems, problemCount: o.problemCount, refused: o.refused }, { status: 422 });
   throw new Error("unreachable upload outcome");
 }
 
@@ -153,16 +153,17 @@ export default function DatasetPage() {
         {uploaded && !result ? <Notice tone="ok">Stored as revision <strong className="font-mono">{uploaded}</strong>.</Notice> : null}
         {result?.kind === "identical" ? <Notice>The content is identical to <strong className="font-mono">r{result.number}</strong>: no new revision was created.</Notice> : null}
         {result?.kind === "error" ? <Notice tone="caution">{result.message}{result.fieldErrors ? <ul className="mt-1 list-disc pl-5">{Object.entries(result.fieldErrors).map(([k, v]) => <li key={k}>{k === "file" ? "file" : mappingFieldWords(k)}: {v}</li>)}</ul> : null}</Notice> : null}
-        {result?.kind === "problems" ? <ProblemList problems={result.problems} problemCount={result.problemCount} /> : null}
+        {result?.kind === "problems" ? <ProblemList problems={result.problems} problemCount={result.problemCount} refused={result.refused} /> : null}
       </div>
 
-      {mappingStep ? (
+      {/* After a refusal the upload is gone; the problems above say what to correct. */}
+      {mappingStep && !(mappingStep.gone && result?.kind === "problems") ? (
         <section aria-labelledby="map-h" className="mt-6 border border-rule bg-sheet p-5">
           <h3 id="map-h" className="text-xl">Map the columns of “{mappingStep.fileName}”</h3>
           {mappingStep.gone ? <p className="mt-2">This upload is no longer waiting. Upload the file again.</p>
             : mappingStep.preview && !mappingStep.preview.ok ? <div className="mt-3"><ProblemList problems={mappingStep.preview.problems} problemCount={mappingStep.preview.problems.length} /></div>
             : mappingStep.preview?.ok ? (
-              <MappingEditor pending={mappingStep.pending} fileName={mappingStep.fileName} preview={mappingStep.preview} saved={savedMapping} busy={busy} errors={result?.kind === "error" ? result.fieldErrors : undefined} />
+              <MappingEditor pending={mappingStep.pending} fileName={mappingStep.fileName} preview={mappingStep.preview} saved={savedMapping} busy={busy} errors={result?.kind === "error" ? result.fieldErrors : undefined} problems={result?.kind === "problems" ? result.problems : undefined} />
             ) : null}
         </section>
       ) : null}

@@ -48,9 +48,11 @@ export default function RevisionPage() {
   const scale = displayScale(revision.quantity);
   const fy = (v: number | null) => fmt(v == null ? null : v * scale.yFactor);
   const xu = scale.xUnit ? ` [${scale.xUnit}]` : "";
+  // A file with bin edges and no x column: x is each bin's centre (docs/decisions/0013-bins-without-a-centre.md).
+  const binCentres = revision.mapping !== null && typeof revision.mapping === "object" && !("x" in revision.mapping);
   const columns: ColumnDef<Row>[] = [
     { id: "idx", accessorKey: "idx", header: "#", cell: (c) => (c.getValue() as number) + 1 },
-    { id: "x", accessorKey: "x", header: `x${xu}`, cell: (c) => fmt(c.getValue() as number) },
+    { id: "x", accessorKey: "x", header: binCentres ? `x, bin centre${xu}` : `x${xu}`, cell: (c) => fmt(c.getValue() as number) },
     ...(has("x_low") ? [{ id: "x_low", accessorKey: "x_low", header: "bin low", enableSorting: false, cell: (c) => fmt(c.getValue() as number) } as ColumnDef<Row>, { id: "x_high", accessorKey: "x_high", header: "bin high", enableSorting: false, cell: (c) => fmt(c.getValue() as number) } as ColumnDef<Row>] : []),
     { id: "y", accessorKey: "y", header: `y [${scale.yUnit}]`, cell: (c) => fy(c.getValue() as number) },
     ...(["stat_minus", "stat_plus", "syst_minus", "syst_plus"] as const).filter(has).map((k) => ({ id: k, accessorKey: k, header: k.replace("_", " ").replace("minus", "−").replace("plus", "+"), enableSorting: false, cell: (c) => fy(c.getValue() as number) }) as ColumnDef<Row>),
@@ -74,6 +76,7 @@ export default function RevisionPage() {
       {dataset.retiredAt ? <p className="mt-2 text-sm" data-testid="retired-notice">The dataset “{dataset.name}” is retired: it no longer appears in the dataset lists, but this revision stays readable for the figures that cite it.</p> : null}
       <dl className="mt-2 grid grid-cols-[12rem_1fr] gap-y-1 text-sm">
         <dt className="text-ink-soft">quantity</dt><dd>{describeQuantity(revision.quantity)}</dd>
+        {binCentres ? <><dt className="text-ink-soft">x</dt><dd data-testid="bin-centre-note">the centre of each bin: the file gives only the bin edges, and the comparison with a prediction uses the whole bin</dd></> : null}
         <dt className="text-ink-soft">rows</dt><dd className="num">{revision.row_count.toLocaleString("en")}</dd>
         <dt className="text-ink-soft">content fingerprint</dt><dd><Fingerprint value={revision.content_hash} groups={4} /></dd>
         <dt className="text-ink-soft">original file</dt><dd>{revision.raw_filename} · <span className="num">{Number(revision.raw_bytes).toLocaleString("en")}</span> bytes · <Fingerprint value={revision.raw_sha256} /></dd>

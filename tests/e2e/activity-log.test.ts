@@ -80,14 +80,14 @@ describe("the activity log in the browser", () => {
     await page.waitForURL(/page=2/);
     await page.getByRole("status").filter({ hasText: "Entries 51–70 of 70, page 2 of 2." }).waitFor();
     await expect(page.locator("tbody tr").count()).resolves.toBe(20);
-    await expect(page.locator("tbody tr").last().innerText()).resolves.toContain(`${helperName} saved draft revision 1 of “a figure”.`);
+    await expect(page.locator("tbody tr").last().innerText()).resolves.toContain(`${helperName} saved draft revision 1 of a figure no longer in this manuscript.`);
     await page.screenshot({ path: path.join(shots, "activity-log-filtered.png") });
 
     const [download] = await Promise.all([page.waitForEvent("download"), page.getByRole("link", { name: "Download these entries as CSV" }).click()]);
     const rows = parse(readFileSync((await download.path())!, "utf8"), { columns: true }) as Record<string, string>[];
     expect(rows.length).toBe(70);
     expect(new Set(rows.map((r) => r.person))).toEqual(new Set([helperName]));
-    expect(rows.map((r) => r.sentence)).toContain(`${helperName} saved draft revision 70 of “a figure”.`);
+    expect(rows.map((r) => r.sentence)).toContain(`${helperName} saved draft revision 70 of a figure no longer in this manuscript.`);
     await page.close();
   }, 90_000);
 });

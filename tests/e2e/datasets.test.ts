@@ -4,7 +4,7 @@ import { mkdtempSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { launchBrowser } from "../support/browser";
+import { launchBrowser, signInAs } from "../support/browser";
 import { testEnv } from "../support/env";
 import { DEMO } from "../support/http";
 
@@ -45,7 +45,7 @@ describe("datasets in the browser", () => {
     await page.getByRole("button", { name: "Upload" }).click();
     await page.getByRole("heading", { name: /Map the columns of “first.csv”/ }).waitFor();
     // Guessed from the headers; checked, not trusted.
-    await expect(page.getByLabel("x (required)").inputValue()).resolves.toBe("theta_cm");
+    await expect(page.getByLabel("x", { exact: true }).inputValue()).resolves.toBe("theta_cm");
     await expect(page.getByLabel("y (required)").inputValue()).resolves.toBe("dsigma");
     await page.getByRole("button", { name: "Check and store as a revision" }).click();
     await page.getByText("Stored as revision").waitFor();
@@ -130,6 +130,57 @@ describe("datasets in the browser", () => {
     await page.goto(datasetUrl);
     await page.getByTestId("read-only-reason").getByText("You are a co-author of this manuscript").waitFor();
     await expect(page.getByLabel("CSV file").count()).resolves.toBe(0);
+    expect(errors).toEqual([]);
+    await page.close();
+  });
+
+  it("marks the bad cell of a refused file, then stores a file that gives only bin edges, plotted at the bins' centres", async () => {
+    await browser.context.clearCookies();
+    const page = await browser.context.newPage();
+    const errors: string[] = [];
+    page.on("pageerror", (e) => errors.push(e.message));
+    await signInAs(browser.context, page, DEMO.contributor);
+    await page.goto(`${testEnv.appUrl}/manuscripts/${DEMO.manuscriptId}/datasets`);
+    const name = `Edges only (browser ${Date.now()})`;
+    await page.getByLabel("Name", { exact: true }).fill(name);
+    await page.getByLabel("Unit of y").fill("ub/sr");
+    await page.getByRole("button", { name: "Create dataset" }).click();
+    await page.getByRole("heading", { name }).waitFor();
+
+    // A letter O typed for a zero: "4O.2" reads as 40.2 in a plain table.
+    await page.getByLabel("CSV file").setInputFiles(file("edges-typo.csv", "theta_lo,theta_hi,dsdo_ub_sr,stat\n20,30,4O.2,0.5\n30,45,35.1,0.4\n"));
+    await page.getByRole("button", { name: "Upload" }).click();
+    await page.getByRole("heading", { name: /Map the columns of “edges-typo.csv”/ }).waitFor();
+    // No x column: x stays empty, both edges are guessed, and that is enough.
+    await expect(page.getByLabel("x", { exact: true }).inputValue()).resolves.toBe("");
+    await expect(page.getByLabel("bin low edge").inputValue()).resolves.toBe("theta_lo");
+    await expect(page.getByLabel("bin high edge").inputValue()).resolves.toBe("theta_hi");
+    await page.getByRole("button", { name: "Check and store as a revision" }).click();
+    await page.getByText(/The file was not stored: 1 problem/).waitFor();
+    const refused = page.getByRole("table", { name: "Refused lines of the file" });
+    const cell = refused.locator("td[data-problem]");
+    await expect(cell.count()).resolves.toBe(1);
+    await expect(cell.getAttribute("data-problem")).resolves.toContain("is not a number");
+    // Line 2, the third column of the file.
+    await expect(refused.locator("tbody tr").first().locator("td").nth(3).getAttribute("data-problem")).resolves.not.toBeNull();
+    const odd = cell.getByTestId("odd-character");
+    await expect(odd.count()).resolves.toBe(1);
+    await expect(odd.getAttribute("title")).resolves.toBe("the letter O (U+004F)");
+    await page.screenshot({ path: path.join(dir, "refused.png"), fullPage: true });
+
+    await page.getByLabel("CSV file").setInputFiles(file("edges.csv", "theta_lo,theta_hi,dsdo_ub_sr,stat\n20,30,40.2,0.5\n30,45,35.1,0.4\n"));
+    await page.getByRole("button", { name: "Upload" }).click();
+    await page.getByRole("heading", { name: /Map the columns of “edges.csv”/ }).waitFor();
+    await page.getByRole("button", { name: "Check and store as a revision" }).click();
+    await page.getByText("Stored as revision").waitFor();
+
+    await page.getByRole("link", { name: "r1", exact: true }).click();
+    await page.getByTestId("bin-centre-note").waitFor();
+    const table = page.getByRole("table", { name: "Rows of r1" });
+    await expect(table.locator("thead th").nth(1).textContent()).resolves.toMatch(/^x, bin centre/);
+    // (20 + 30)/2 and (30 + 45)/2, by hand.
+    await expect(table.locator("tbody tr").nth(0).locator("td").nth(1).textContent()).resolves.toBe("25");
+    await expect(table.locator("tbody tr").nth(1).locator("td").nth(1).textContent()).resolves.toBe("37.5");
     expect(errors).toEqual([]);
     await page.close();
   });

@@ -57,12 +57,12 @@ describe("the activity log page", () => {
     const base = `/manuscripts/${manuscriptId}/audit?person=${busy.id}`;
     const first = await textOf(await client.get(base));
     expect(first).toContain(`Entries 1–50 of ${SAVES}, page 1 of 3.`);
-    expect(first).toContain(`saved draft revision ${SAVES} of “a figure”.`);
+    expect(first).toContain(`saved draft revision ${SAVES} of a figure no longer in this manuscript.`);
     expect(first).not.toContain("Test activity-owner created");
     const third = await client.get(`${base}&page=3`);
     const thirdText = await textOf(third);
     expect(thirdText).toContain(`Entries 101–${SAVES} of ${SAVES}, page 3 of 3.`);
-    expect(thirdText).toContain("saved draft revision 1 of “a figure”.");
+    expect(thirdText).toContain("saved draft revision 1 of a figure no longer in this manuscript.");
     expect(thirdText).not.toContain("saved draft revision 21 of");
     // Everyone, every kind: the saves and the owner's own entries.
     expect(await textOf(await client.get(`/manuscripts/${manuscriptId}/audit`))).toContain(`of ${SAVES + 2}, page 1 of 3.`);
@@ -86,7 +86,7 @@ describe("the CSV download", () => {
     expect(Object.keys(rows[0])).toEqual(["when_utc", "person", "kind", "action", "sentence", "detail_json"]);
     // OWASP "CSV Injection": a name starting with = is written with a leading apostrophe.
     expect(rows[0].person).toBe(`'${BUSY_NAME}`);
-    expect(rows[0].sentence).toBe(`'${BUSY_NAME} saved draft revision ${SAVES} of “a figure”.`);
+    expect(rows[0].sentence).toBe(`'${BUSY_NAME} saved draft revision ${SAVES} of a figure no longer in this manuscript.`);
     expect(rows[0].action).toBe("figure-draft-saved");
     expect(rows[0].kind).toBe("Figures and drafts");
     expect(rows[0].when_utc).toMatch(/^\d{4}-\d\d-\d\dT\d\d:\d\d:\d\d\.\d{3}Z$/);

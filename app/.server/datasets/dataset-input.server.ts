@@ -94,7 +94,7 @@ export const MappingForm = z
     const err = (kind: string, sym?: string, minus?: string, plus?: string) =>
       kind === "symmetric" ? { kind: "symmetric" as const, column: sym ?? "" } : kind === "asymmetric" ? { kind: "asymmetric" as const, minus: minus ?? "", plus: plus ?? "" } : undefined;
     return {
-      x: f.x,
+      ...(f.x ? { x: f.x } : {}),
       ...(f.xLow || f.xHigh ? { xLow: f.xLow || undefined, xHigh: f.xHigh || undefined } : {}),
       y: f.y,
       stat: err(f.statKind, f.stat, f.statMinus, f.statPlus),

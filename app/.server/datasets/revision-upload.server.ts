@@ -6,6 +6,7 @@ import type { DatasetProblem } from "~/datasets/dataset-problem";
 import type { QuantityDescription } from "~/datasets/quantity";
 import { recordAudit } from "../platform/audit.server";
 import { ingestCsvOffThread } from "./csv/ingest-csv-pool.server";
+import { readRefusedLines, type RefusedLines } from "./csv/preview-csv.server";
 import { db } from "../platform/db.server";
 import { env } from "../platform/env.server";
 import { type SaveRevisionResult, saveRevision } from "./dataset-repository.server";
@@ -32,7 +33,7 @@ function sweepAbandoned(): void {
 
 export type UploadOutcome =
   | { kind: "created" | "identical"; revision: { id: string; number: number; contentHash: string; rowCount: number } }
-  | { kind: "problems"; problems: DatasetProblem[]; problemCount: number }
+  | { kind: "problems"; problems: DatasetProblem[]; problemCount: number; refused: RefusedLines | null }
   | { kind: "limit"; limit: { kind: "rows" | "bytes"; max: number } };
 
 export type ReceivedForm =
@@ -91,10 +92,12 @@ export async function ingestUpload(args: {
   // On a worker thread: seconds of parsing must not hold the event loop (decision 0012).
   const result = await ingestCsvOffThread(args.tempPath, { mapping: args.mapping, quantity: args.quantity, limits: { maxRows: env.UPLOAD_MAX_ROWS } });
   if (!result.ok) {
+    // The lines the problems point at, read before the file is discarded, to show the bad cells.
+    const refused = result.reason === "problems" ? await readRefusedLines(args.tempPath, result.problems.flatMap((p) => (p.row !== null && p.column !== null ? [p.row] : []))) : null;
     await st.discard(args.tempPath);
     const detail = result.reason === "problems" ? { problemCount: result.problemCount, fileName: args.raw.fileName } : { limit: result.limit, fileName: args.raw.fileName };
     await recordAudit(db, { action: "revision-rejected", actorId: args.userId, manuscriptId: args.manuscriptId, ip: args.ip, detail: { datasetId: args.datasetId, ...detail } });
-    return result.reason === "problems" ? { kind: "problems", problems: result.problems, problemCount: result.problemCount } : { kind: "limit", limit: result.limit };
+    return result.reason === "problems" ? { kind: "problems", problems: result.problems, problemCount: result.problemCount, refused } : { kind: "limit", limit: result.limit };
   }
   const existing = await db.selectFrom("dataset_revision").select(["id", "number", "row_count"]).where("dataset_id", "=", args.datasetId).where("content_hash", "=", result.hash).executeTakeFirst();
   let saved: SaveRevisionResult;

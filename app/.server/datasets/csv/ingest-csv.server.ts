@@ -77,7 +77,7 @@ export async function ingestCsv(filePath: string, options: IngestOptions): Promi
         return STOP;
       }
       validator = created.validator;
-      store = new ColumnStore(validator.slots, capacity);
+      store = new ColumnStore(validator.storedSlots, capacity);
       pendingText = normalFormHeader(mapping, quantity, validator.scales);
       return;
     }

@@ -369,3 +369,48 @@ describe("ingestCsv: the same numbers in another unit of the same family", () =>
     expect(hashOf(inPb)).toBe(hashOf(inNb));
   });
 });
+
+describe("ingestCsv: bins without a centre column (docs/decisions/0013-bins-without-a-centre.md)", () => {
+  const EDGES: ColumnMapping = { xLow: "lo", xHigh: "hi", y: "y" };
+
+  it("stores each bin's centre as x and hashes only what the file gives", async () => {
+    const r = await ingestText("lo,hi,y\n20,30,1.5\n30,45,0.75\n", EDGES);
+    if (!r.ok) throw new Error(JSON.stringify(r));
+    // Midpoints worked by hand: (20 + 30)/2 and (30 + 45)/2.
+    expect(Array.from(r.columns.x)).toEqual([25, 37.5]);
+    expect(Array.from(r.columns.xLow ?? [])).toEqual([20, 30]);
+    expect(Array.from(r.columns.xHigh ?? [])).toEqual([30, 45]);
+    // The y values of the first test above (1.5 and 0.75 nb/sr); no x column in the normal form.
+    const normalForm =
+      "steradian-dataset-normal-form/1\n" +
+      "x=theta_cm_deg [deg]\n" +
+      "y=dsigma_domega [GeV^-2/sr]\n" +
+      "columns=x_low,x_high,y\n" +
+      "20,30,0.00000385228419243\n" +
+      "30,45,0.00000192614209622\n";
+    expect(r.hash).toBe(createHash("sha256").update(normalForm).digest("hex"));
+  });
+
+  it("is another revision than the same bins with their centres written out", async () => {
+    const derived = await ingestText("lo,hi,y\n20,30,1.5\n", EDGES);
+    const given = await ingestText("x,lo,hi,y\n25,20,30,1.5\n", { x: "x", ...EDGES });
+    if (!derived.ok || !given.ok) throw new Error("expected both to be stored");
+    expect(Array.from(derived.columns.x)).toEqual(Array.from(given.columns.x));
+    expect(derived.hash).not.toBe(given.hash);
+  });
+
+  it("takes the centre in the file's variable after its unit: t bins in MeV² give centres in GeV²", async () => {
+    const r = await ingestText("t_lo,t_hi,y\n-250000,-90000,1\n-90000,-10000,2\n", { xLow: "t_lo", xHigh: "t_hi", y: "y" }, { x: { kind: "t", unit: "MeV^2" }, y: { kind: "dsigma_dt", unit: "GeV^-4" } });
+    if (!r.ok) throw new Error(JSON.stringify(r));
+    // −0.25 and −0.09 GeV² → −0.17; −0.09 and −0.01 → −0.05 (worked by hand).
+    expect(Array.from(r.columns.x)).toEqual([-0.17, -0.05]);
+  });
+
+  it("still refuses swapped edges and repeated bins, at the edge's column", async () => {
+    const swapped = onlyProblem(await ingestText("lo,hi,y\n30,20,1\n", EDGES));
+    expect(swapped).toMatchObject({ code: "bin-order", row: 2, column: 1, header: "lo" });
+    const repeated = onlyProblem(await ingestText("lo,hi,y\n20,30,1\n20,30,2\n", EDGES));
+    expect(repeated).toMatchObject({ code: "duplicate-x", row: 3, column: 1 });
+    expect(repeated.message).toContain("the bin [20°, 30°] already appears on line 2");
+  });
+});
