@@ -229,7 +229,7 @@ export default function DatasetPage() {
           <p className="mt-1 text-sm text-ink-soft">Open to the corresponding author and to whoever created the dataset. Both are recorded in the manuscript's activity.</p>
           <Form method="post" className="mt-3 flex flex-wrap items-end gap-3">
             <input type="hidden" name="intent" value="rename" />
-            <Field label="New name" name="name" defaultValue={dataset.name} required maxLength={200} className="min-w-80" error={result?.kind === "rename-error" ? result.message : undefined} />
+            <Field label="New name" name="name" defaultValue={dataset.name} required maxLength={200} className="min-w-80 flex-1" error={result?.kind === "rename-error" ? result.message : undefined} />
             <Button type="submit" disabled={busy}>Rename</Button>
           </Form>
           <Form method="post" className="mt-5 flex flex-wrap items-center gap-3 text-sm">

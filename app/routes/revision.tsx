@@ -53,7 +53,7 @@ export default function RevisionPage() {
   const columns: ColumnDef<Row>[] = [
     { id: "idx", accessorKey: "idx", header: "#", cell: (c) => (c.getValue() as number) + 1 },
     { id: "x", accessorKey: "x", header: binCentres ? `x, bin centre${xu}` : `x${xu}`, cell: (c) => fmt(c.getValue() as number) },
-    ...(has("x_low") ? [{ id: "x_low", accessorKey: "x_low", header: "bin low", enableSorting: false, cell: (c) => fmt(c.getValue() as number) } as ColumnDef<Row>, { id: "x_high", accessorKey: "x_high", header: "bin high", enableSorting: false, cell: (c) => fmt(c.getValue() as number) } as ColumnDef<Row>] : []),
+    ...(has("x_low") ? [{ id: "x_low", accessorKey: "x_low", header: `bin low${xu}`, enableSorting: false, cell: (c) => fmt(c.getValue() as number) } as ColumnDef<Row>, { id: "x_high", accessorKey: "x_high", header: `bin high${xu}`, enableSorting: false, cell: (c) => fmt(c.getValue() as number) } as ColumnDef<Row>] : []),
     { id: "y", accessorKey: "y", header: `y [${scale.yUnit}]`, cell: (c) => fy(c.getValue() as number) },
     ...(["stat_minus", "stat_plus", "syst_minus", "syst_plus"] as const).filter(has).map((k) => ({ id: k, accessorKey: k, header: k.replace("_", " ").replace("minus", "−").replace("plus", "+"), enableSorting: false, cell: (c) => fy(c.getValue() as number) }) as ColumnDef<Row>),
   ];
@@ -81,7 +81,7 @@ export default function RevisionPage() {
         <dt className="text-ink-soft">content fingerprint</dt><dd><Fingerprint value={revision.content_hash} groups={4} /></dd>
         <dt className="text-ink-soft">original file</dt><dd>{revision.raw_filename} · <span className="num">{Number(revision.raw_bytes).toLocaleString("en")}</span> bytes · <Fingerprint value={revision.raw_sha256} /></dd>
       </dl>
-      <p className="mt-3 text-xs text-ink-faint">Shown in the dataset's units (8 significant digits). The revision's fingerprint is taken over its normal form: angles in degrees, t in GeV², energies in GeV, cross sections in GeV⁻² (per sr, per GeV² where they apply), 12 significant digits.</p>
+      <p className="mt-3 text-xs text-ink-faint">Shown in the dataset's units (8 significant digits); errors are in the unit of y. The revision's fingerprint is taken over its normal form: angles in degrees, t in GeV², energies in GeV, cross sections in GeV⁻² (per sr, per GeV² where they apply), 12 significant digits.</p>
       <div className="mt-4">
         {lookInputs ? <QuickLook model={look} inputs={lookInputs} title={`${dataset.name} r${revision.number}`} />
           : <p className="text-sm text-ink-soft">No quick look: this revision has more than {QUICK_LOOK_MAX_ROWS.toLocaleString("en")} rows. Put it in a figure to draw it.</p>}

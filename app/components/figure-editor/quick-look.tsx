@@ -9,7 +9,7 @@ import { svgForPage } from "~/figures/svg-for-page";
  * figure's preview and export), with a linear or log y axis.
  */
 export function QuickLook({ model, inputs, title }: { model: FigureModel; inputs: DatasetInputs; title: string }) {
-  const [yScale, setYScale] = useState<"linear" | "log">(model.y.scale);
+  const [yScale, setYScale] = useState<"linear" | "log">(() => initialYScale(model.y.scale, inputs));
   const shown = useMemo(() => ({ ...model, y: { ...model.y, scale: yScale, domain: null } }), [model, yScale]);
   const metadata = useMemo(() => ({ title, description: "", notes: ["Quick look at a dataset revision; not a figure for publication."] }), [title]);
   const preview = useFigurePreview(shown, inputs, metadata, 0);
@@ -31,4 +31,17 @@ export function QuickLook({ model, inputs, title }: { model: FigureModel; inputs
       )}
     </section>
   );
+}
+
+/**
+ * A log axis only where it shows something: values that are not all positive, or that span less
+ * than a decade (one labelled tick at most), start on a linear axis; the reader can still switch.
+ */
+export function initialYScale(wanted: "linear" | "log", inputs: DatasetInputs): "linear" | "log" {
+  if (wanted === "linear") return "linear";
+  const ys = Object.values(inputs).flatMap((d) => d.rows.map((r) => r.y));
+  if (ys.length === 0) return wanted;
+  const min = Math.min(...ys);
+  const max = Math.max(...ys);
+  return min > 0 && max / min >= 10 ? "log" : "linear";
 }
