@@ -80,7 +80,7 @@ export function RefusedLines({ refused, problems }: { refused: Refused; problems
             {refused.rows.map((r) => (
               <tr key={r.line}>
                 <td className="num pr-4 text-ink-faint">{r.line}</td>
-                {r.fields.map((f, i) => <FileCell key={i} text={f} said={messages.get(`${r.line}:${i + 1}`)} className="px-1" />)}
+                {r.fields.map((f, i) => <FileCell key={i} text={f} said={messages.get(`${r.line}:${i + 1}`)} className="pr-4" />)}
               </tr>
             ))}
           </tbody>
@@ -105,8 +105,10 @@ export function problemsByCell(problems: readonly Problem[]): Map<string, string
 export function FileCell({ text, said, className = "" }: { text: string; said?: string[]; className?: string }) {
   if (!said) return <td className={`num ${className}`}>{text}</td>;
   return (
-    <td className={`num outline-2 -outline-offset-2 outline-madder outline ${className}`} data-problem={said.join(" ")}>
-      <MarkedField text={text.trim()} />
+    <td className={`num ${className}`} data-problem={said.join(" ")}>
+      <span className="px-0.5 outline-2 outline-madder outline">
+        <MarkedField text={text.trim()} />
+      </span>
       <span className="sr-only"> — refused: {said.join(" ")}</span>
     </td>
   );

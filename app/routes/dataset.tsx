@@ -87,7 +87,7 @@ export async function action({ request, params, context }: Route.ActionArgs) {
   if (!pending) return data<ActionResult>({ kind: "error", message: "That upload is no longer waiting (it was used, or the server restarted). Upload the file again." }, { status: 422 });
   const mapping = parseFields(form, MappingForm);
   if (!mapping.ok) return data<ActionResult>({ kind: "error", message: "Some columns need attention.", fieldErrors: mapping.fieldErrors }, { status: 422 });
-  const outcome = await ingestUpload({ ...common, tempPath: pending.tempPath, raw: { sha256: pending.sha256, bytes: pending.bytes, fileName }, mapping: mapping.value });
+  const outcome = await ingestUpload({ ...common, tempPath: pending.tempPath, raw: { sha256: pending.sha256, bytes: pending.bytes, fileName }, mapping: mapping.value, keepRefused: true });
   return answer(outcome, base);
 }
 

@@ -166,17 +166,30 @@ describe("datasets in the browser", () => {
     const odd = cell.getByTestId("odd-character");
     await expect(odd.count()).resolves.toBe(1);
     await expect(odd.getAttribute("title")).resolves.toBe("the letter O (U+004F)");
+    await expect(page.locator("td[data-problem]").count()).resolves.toBe(2); // and in the mapping step's preview
     await page.screenshot({ path: path.join(dir, "refused.png"), fullPage: true });
 
+    // The file still waits in the mapping step: another mapping, leaving the bad column out, is
+    // checked without a new upload (y read from "stat", only to show the file was kept).
+    await page.getByLabel("y (required)").selectOption("stat");
+    await page.getByLabel("statistical error: kind").selectOption("none");
+    await page.getByRole("button", { name: "Check and store as a revision" }).click();
+    await page.getByText("Stored as revision").waitFor();
+    await page.getByRole("link", { name: "r1", exact: true }).waitFor();
+
     await page.getByLabel("CSV file").setInputFiles(file("edges.csv", "theta_lo,theta_hi,dsdo_ub_sr,stat\n20,30,40.2,0.5\n30,45,35.1,0.4\n"));
+    await page.getByLabel("Use the saved column mapping").uncheck();
     await page.getByRole("button", { name: "Upload" }).click();
     await page.getByRole("heading", { name: /Map the columns of “edges.csv”/ }).waitFor();
+    await page.getByLabel("y (required)").selectOption("dsdo_ub_sr");
+    await page.getByLabel("statistical error: kind").selectOption("symmetric");
+    await page.getByLabel("column", { exact: true }).selectOption("stat");
     await page.getByRole("button", { name: "Check and store as a revision" }).click();
     await page.getByText("Stored as revision").waitFor();
 
-    await page.getByRole("link", { name: "r1", exact: true }).click();
+    await page.getByRole("link", { name: "r2", exact: true }).click();
     await page.getByTestId("bin-centre-note").waitFor();
-    const table = page.getByRole("table", { name: "Rows of r1" });
+    const table = page.getByRole("table", { name: "Rows of r2" });
     await expect(table.locator("thead th").nth(1).textContent()).resolves.toMatch(/^x, bin centre/);
     // (20 + 30)/2 and (30 + 45)/2, by hand.
     await expect(table.locator("tbody tr").nth(0).locator("td").nth(1).textContent()).resolves.toBe("25");

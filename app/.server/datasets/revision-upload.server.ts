@@ -87,6 +87,11 @@ export async function ingestUpload(args: {
   raw: { sha256: string; bytes: number; fileName: string };
   mapping: ColumnMapping;
   quantity: QuantityDescription;
+  /**
+   * Keep a refused file where it is: a file waiting in the mapping step stays there, so that a
+   * refusal caused by the mapping can be answered with another mapping, not another upload.
+   */
+  keepRefused?: boolean;
 }): Promise<UploadOutcome> {
   const st = blobStore();
   // On a worker thread: seconds of parsing must not hold the event loop (decision 0012).
@@ -94,7 +99,7 @@ export async function ingestUpload(args: {
   if (!result.ok) {
     // The lines the problems point at, read before the file is discarded, to show the bad cells.
     const refused = result.reason === "problems" ? await readRefusedLines(args.tempPath, result.problems.flatMap((p) => (p.row !== null && p.column !== null ? [p.row] : []))) : null;
-    await st.discard(args.tempPath);
+    if (!args.keepRefused) await st.discard(args.tempPath);
     const detail = result.reason === "problems" ? { problemCount: result.problemCount, fileName: args.raw.fileName } : { limit: result.limit, fileName: args.raw.fileName };
     await recordAudit(db, { action: "revision-rejected", actorId: args.userId, manuscriptId: args.manuscriptId, ip: args.ip, detail: { datasetId: args.datasetId, ...detail } });
     return result.reason === "problems" ? { kind: "problems", problems: result.problems, problemCount: result.problemCount, refused } : { kind: "limit", limit: result.limit };
