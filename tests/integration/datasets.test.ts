@@ -168,4 +168,20 @@ describe("datasets API", () => {
     const res = await script.upload(`${base()}/revisions`, angularCsv([3, 3, 3, 3, 3]), { mapping: JSON.stringify(ANGULAR_MAPPING) }, "from-script.csv", { Authorization: `Bearer ${secret}` });
     expect(res.status).toBe(201);
   });
+
+  it("stores a file that gives only bin edges, with x the bins' centres, and asks for x in words when neither is mapped", async () => {
+    const id = await createDatasetViaApi(c, manuscriptId, "edges only", { mapping: { xLow: "theta_lo", xHigh: "theta_hi", y: "dsdo" } });
+    const at = `/api/v1/manuscripts/${manuscriptId}/datasets/${id}`;
+    const res = await c.upload(`${at}/revisions`, "theta_lo,theta_hi,dsdo\n20,30,1.5\n30,45,0.75\n", {}, "edges.csv");
+    expect(res.status).toBe(201);
+    const rows = (await (await c.get(`${at}/revisions/1/rows`)).json()) as { rows: Array<{ x: number; xLow: number; xHigh: number }> };
+    // (20 + 30)/2 and (30 + 45)/2, by hand.
+    expect(rows.rows.map((r) => [r.x, r.xLow, r.xHigh])).toEqual([[25, 20, 30], [37.5, 30, 45]]);
+
+    const neither = await c.upload(`${at}/revisions`, "theta_lo,theta_hi,dsdo\n20,30,1.5\n", { mapping: JSON.stringify({ y: "dsdo" }) }, "edges.csv");
+    expect(neither.status).toBe(422);
+    const body = (await neither.json()) as { error: { field: string; message: string } };
+    expect(body.error.field).toBe("mapping.x");
+    expect(body.error.message).toBe("The mapping of x (“x”): choose the column that holds x, or map both edges of the bin (each point is then plotted at its bin's centre).");
+  });
 });
