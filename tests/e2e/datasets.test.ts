@@ -3,6 +3,7 @@
 import { mkdtempSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
+import AxeBuilder from "@axe-core/playwright";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { launchBrowser, signInAs } from "../support/browser";
 import { testEnv } from "../support/env";
@@ -168,6 +169,9 @@ describe("datasets in the browser", () => {
     await expect(odd.getAttribute("title")).resolves.toBe("the letter O (U+004F)");
     await expect(page.locator("td[data-problem]").count()).resolves.toBe(2); // and in the mapping step's preview
     await page.screenshot({ path: path.join(dir, "refused.png"), fullPage: true });
+    // The refusal as the page shows it, with its marked cells: no serious or critical axe finding.
+    const scan = await new AxeBuilder({ page }).analyze();
+    expect(scan.violations.filter((v) => v.impact === "serious" || v.impact === "critical").map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(" ")).join(", ")}`)).toEqual([]);
 
     // The file still waits in the mapping step: another mapping, leaving the bad column out, is
     // checked without a new upload (y read from "stat", only to show the file was kept).
