@@ -2,6 +2,7 @@
 import { crc32 } from "node:zlib";
 import { Resvg } from "@resvg/resvg-js";
 import { assertSelfContainedSvg, assertTextAsOutlines } from "~/exports/self-contained-svg";
+import { mergeSiblingClips } from "./merge-sibling-clips.server";
 import { pngChunks } from "./png-chunks.server";
 
 export interface PngOptions {
@@ -61,6 +62,8 @@ export function withPhysicalDpi(png: Buffer, dpi: number): Buffer {
  * The figure as a PNG of round(widthPt / 72 × dpi) × round(heightPt / 72 × dpi) pixels on
  * white, with its dpi in pHYs. No system font is loaded: the figure's text is already glyph
  * paths, so the picture cannot depend on the host. Deterministic: the same SVG gives the same bytes.
+ * Runs of mark groups with the same clip are clipped once (mergeSiblingClips), which halves the
+ * time of a 600 dpi figure.
  */
 export function svgToPng(svg: string, options: PngOptions): Buffer {
   assertSelfContainedSvg(svg);
@@ -70,7 +73,7 @@ export function svgToPng(svg: string, options: PngOptions): Buffer {
   const widthPx = pixelsFor(options.widthPt, dpi);
   const heightPx = pixelsFor(options.heightPt, dpi);
   if (widthPx < 1 || heightPx < 1) throw new Error(`a PNG of ${widthPx} × ${heightPx} pixels is empty`);
-  const resvg = new Resvg(withPixelSize(svg, widthPx, heightPx), {
+  const resvg = new Resvg(mergeSiblingClips(withPixelSize(svg, widthPx, heightPx)), {
     font: { loadSystemFonts: false },
     background: "#ffffff",
     logLevel: "off",
