@@ -16,7 +16,9 @@ function errDefaults(e: ColumnMapping["stat"] | undefined): { kind: ErrKind; sym
 /** The mapping step: the first rows of the file, and which column holds which quantity. */
 export function MappingEditor({ pending, fileName, preview, saved, busy, errors = {}, problems = [] }: { pending: string; fileName: string; preview: Preview; saved: ColumnMapping | null; busy: boolean; errors?: Record<string, string>; problems?: { row: number | null; column: number | null; message: string }[] }) {
   const marked = problemsByCell(problems);
-  const start: Partial<ColumnMapping> = saved && mappedColumnEntries(saved).every(([, name]) => preview.headers.includes(name)) ? saved : preview.guess.mapping;
+  // The saved mapping fills the form only when every column it names is in this file.
+  const usedSaved = saved !== null && mappedColumnEntries(saved).every(([, name]) => preview.headers.includes(name));
+  const start: Partial<ColumnMapping> = usedSaved ? saved : preview.guess.mapping;
   const [stat, setStat] = useState<ErrKind>(errDefaults(start.stat).kind);
   const [syst, setSyst] = useState<ErrKind>(errDefaults(start.syst).kind);
   const s = errDefaults(start.stat);
@@ -26,7 +28,8 @@ export function MappingEditor({ pending, fileName, preview, saved, busy, errors 
     <>
       <p className="mt-1 text-sm text-ink-soft">
         Separated by {delim}; {preview.headers.length} columns.
-        {saved ? " Pre-filled from the mapping of the previous revision." : preview.guess.guessed.length ? ` Guessed from the headers: ${preview.guess.guessed.join(", ")}. Check each choice.` : " Nothing could be guessed from the headers."}
+        {usedSaved ? " Pre-filled from the mapping of the previous revision." : saved ? " The saved mapping names columns this file does not have." : ""}
+        {usedSaved ? "" : preview.guess.guessed.length ? ` Guessed from the headers: ${preview.guess.guessed.join(", ")}. Check each choice.` : " Nothing could be guessed from the headers."}
       </p>
       <div className="mt-3 overflow-x-auto">
         <table className="text-sm">

@@ -58,34 +58,46 @@ export function MarkedField({ text }: { text: string }) {
   );
 }
 
-type Refused = { headers: string[]; rows: { line: number; fields: string[] }[] };
+type Refused = { columns: number[]; headers: string[]; columnCount: number; rows: { line: number; fields: string[] }[] };
 
 /**
  * The lines a refused file's problems point at, as the file has them, with the cells that hold
- * a problem outlined and the characters that cannot be part of a number marked: "4O.2" shows
- * its letter O, which reads as 40.2 in a plain table.
+ * a problem outlined and the characters that cannot be part of a number marked, and named in a
+ * list below: "4O.2" shows its letter O, which reads as 40.2 in a plain table.
  */
 export function RefusedLines({ refused, problems }: { refused: Refused; problems: Problem[] }) {
   const messages = problemsByCell(problems);
+  const odd = refused.rows.flatMap((r) =>
+    r.fields.flatMap((f, i) => {
+      const column = refused.columns[i];
+      if (!messages.has(`${r.line}:${column}`)) return [];
+      const named = [...new Set(Array.from(f.trim()).filter((ch) => !NUMBER_CHARACTER.test(ch) && ch !== "…"))].map(describeCharacter);
+      return named.length ? [`line ${r.line}, column ${column} “${refused.headers[i]}”: ${named.join(", ")}`] : [];
+    }),
+  );
   return (
     <section aria-labelledby="refused-h" className="mt-3">
       <h4 id="refused-h" className="font-sans text-sm font-medium">The refused lines, as the file has them</h4>
-      <p className="text-sm text-ink-soft">Outlined cells hold a problem; characters that cannot be part of a number are marked and named.</p>
+      <p className="text-sm text-ink-soft">
+        Outlined cells hold a problem; characters that cannot be part of a number are marked and named below.
+        {refused.columns.length < refused.columnCount ? ` Only ${refused.columns.length} of the file's ${refused.columnCount} columns are shown: the first ones and those with a problem.` : ""}
+      </p>
       <div className="mt-2 overflow-x-auto">
         <table className="text-sm" aria-label="Refused lines of the file">
           <thead className="border-b border-rule text-left">
-            <tr><th className="pr-4 font-normal text-ink-faint">line</th>{refused.headers.map((h, i) => <th key={i} className="pr-4 font-medium"><span className="font-mono text-xs text-ink-faint">{i + 1}</span> {h}</th>)}</tr>
+            <tr><th className="pr-4 font-normal text-ink-faint">line</th>{refused.headers.map((h, i) => <th key={i} className="pr-4 font-medium"><span className="font-mono text-xs text-ink-faint">{refused.columns[i]}</span> {h}</th>)}</tr>
           </thead>
           <tbody className="font-mono">
             {refused.rows.map((r) => (
               <tr key={r.line}>
                 <td className="num pr-4 text-ink-faint">{r.line}</td>
-                {r.fields.map((f, i) => <FileCell key={i} text={f} said={messages.get(`${r.line}:${i + 1}`)} className="pr-4" />)}
+                {r.fields.map((f, i) => <FileCell key={i} text={f} said={messages.get(`${r.line}:${refused.columns[i]}`)} className="pr-4" />)}
               </tr>
             ))}
           </tbody>
         </table>
       </div>
+      {odd.length ? <ul className="mt-2 list-disc pl-5 text-sm" data-testid="odd-characters">{odd.map((o) => <li key={o}>{o}</li>)}</ul> : null}
     </section>
   );
 }

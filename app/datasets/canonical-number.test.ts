@@ -129,6 +129,20 @@ describe("the centre of a bin (canonicalMidpoint)", () => {
     expect(canonicalMidpoint("-0.100000000001", "-0.1").text).toBe("-0.100000000001");
   });
 
+  it("stays exact and within the bin at the ends of the double range", () => {
+    expect(canonicalMidpoint("1e-300", "1e+300").text).toBe("5e+299");
+    expect(canonicalMidpoint("-1.7976931348623157e+308", "1.7976931348623157e+308")).toEqual({ value: 0, text: "0" });
+    expect(canonicalMidpoint("-5e-324", "5e-324")).toEqual({ value: 0, text: "0" });
+    for (const [lo, hi] of [["0", "5e-324"], ["1e-320", "3e-320"], ["1.7e+308", "1.79e+308"]]) {
+      const mid = canonicalMidpoint(lo, hi);
+      expect(mid.value).toBeGreaterThanOrEqual(Number(lo));
+      expect(mid.value).toBeLessThanOrEqual(Number(hi));
+      expect(Number.isFinite(mid.value)).toBe(true);
+    }
+    // Exact: 2e-320 is the midpoint of 1e-320 and 3e-320, whatever their subnormal doubles are.
+    expect(canonicalMidpoint("1e-320", "3e-320").text).toBe(String(2e-320));
+  });
+
   it("rounds the exact midpoint once, not an intermediate sum", () => {
     // The exact midpoint of 9.99999999999e-13 and 2 is 1.0000000000004999999999995, below the
     // rounding point 1.0000000000005, so it is 1. Rounding the sum first to 20 digits (decimal.js's

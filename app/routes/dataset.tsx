@@ -6,7 +6,7 @@ import { limitMessage } from "~/.server/datasets/dataset-json.server";
 import { listRevisions } from "~/.server/datasets/dataset-repository.server";
 import { DatasetNameTaken } from "~/.server/datasets/dataset-create.server";
 import { TIDY_REFUSAL, canTidyDataset, datasetNameSchema, renameDataset, retireDataset } from "~/.server/datasets/dataset-tidy.server";
-import { previewCsv } from "~/.server/datasets/csv/preview-csv.server";
+import { previewCsv, type RefusedLines } from "~/.server/datasets/csv/preview-csv.server";
 import { db } from "~/.server/platform/db.server";
 import { env } from "~/.server/platform/env.server";
 import { parseFields } from "~/.server/platform/http/forms.server";
@@ -44,7 +44,7 @@ export async function loader({ request, params }: Route.LoaderArgs) {
 }
 
 type ActionResult =
-  | { kind: "problems"; problems: { row: number | null; column: number | null; header: string | null; message: string }[]; problemCount: number; refused: { headers: string[]; rows: { line: number; fields: string[] }[] } | null }
+  | { kind: "problems"; problems: { row: number | null; column: number | null; header: string | null; message: string }[]; problemCount: number; refused: RefusedLines | null }
   | { kind: "identical"; number: number }
   | { kind: "error"; message: string; fieldErrors?: Record<string, string> }
   | { kind: "rename-error"; message: string };
@@ -73,7 +73,7 @@ export async function action({ request, params, context }: Route.ActionArgs) {
     const upload = form.upload;
     const saved = dataset.mapping ? columnMappingSchema.safeParse(dataset.mapping) : null;
     if (form.fields.get("useSaved") === "on" && saved?.success) {
-      const outcome = await ingestUpload({ ...common, tempPath: upload.tempPath, raw: { sha256: upload.sha256, bytes: upload.bytes, fileName: upload.fileName }, mapping: saved.data });
+      const outcome = await ingestUpload({ ...common, tempPath: upload.tempPath, raw: { sha256: upload.sha256, bytes: upload.bytes, fileName: upload.fileName }, mapping: saved.data, refusedLines: true });
       return answer(outcome, base);
     }
     // Kept in temporary storage until its columns are mapped; cleaned at the next start if abandoned.
@@ -87,7 +87,7 @@ export async function action({ request, params, context }: Route.ActionArgs) {
   if (!pending) return data<ActionResult>({ kind: "error", message: "That upload is no longer waiting (it was used, or the server restarted). Upload the file again." }, { status: 422 });
   const mapping = parseFields(form, MappingForm);
   if (!mapping.ok) return data<ActionResult>({ kind: "error", message: "Some columns need attention.", fieldErrors: mapping.fieldErrors }, { status: 422 });
-  const outcome = await ingestUpload({ ...common, tempPath: pending.tempPath, raw: { sha256: pending.sha256, bytes: pending.bytes, fileName }, mapping: mapping.value, keepRefused: true });
+  const outcome = await ingestUpload({ ...common, tempPath: pending.tempPath, raw: { sha256: pending.sha256, bytes: pending.bytes, fileName }, mapping: mapping.value, keepRefused: true, refusedLines: true });
   return answer(outcome, base);
 }
 
@@ -156,7 +156,7 @@ export default function DatasetPage() {
         {result?.kind === "problems" ? <ProblemList problems={result.problems} problemCount={result.problemCount} refused={result.refused} /> : null}
       </div>
 
-      {/* After a refusal the upload is gone; the problems above say what to correct. */}
+      {/* A waiting file that is gone by the time of a refusal (used in another tab, or swept at a restart): the problems above say what to correct. */}
       {mappingStep && !(mappingStep.gone && result?.kind === "problems") ? (
         <section aria-labelledby="map-h" className="mt-6 border border-rule bg-sheet p-5">
           <h3 id="map-h" className="text-xl">Map the columns of “{mappingStep.fileName}”</h3>

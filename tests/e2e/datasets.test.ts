@@ -167,6 +167,8 @@ describe("datasets in the browser", () => {
     const odd = cell.getByTestId("odd-character");
     await expect(odd.count()).resolves.toBe(1);
     await expect(odd.getAttribute("title")).resolves.toBe("the letter O (U+004F)");
+    // Named in visible text too, not only on hover.
+    await expect(page.getByTestId("odd-characters").textContent()).resolves.toBe("line 2, column 3 “dsdo_ub_sr”: the letter O (U+004F)");
     await expect(page.locator("td[data-problem]").count()).resolves.toBe(2); // and in the mapping step's preview
     await page.screenshot({ path: path.join(dir, "refused.png"), fullPage: true });
     // The refusal as the page shows it, with its marked cells: no serious or critical axe finding.

@@ -6,7 +6,7 @@ import type { DatasetProblem } from "~/datasets/dataset-problem";
 import type { QuantityDescription } from "~/datasets/quantity";
 import { recordAudit } from "../platform/audit.server";
 import { ingestCsvOffThread } from "./csv/ingest-csv-pool.server";
-import { readRefusedLines, type RefusedLines } from "./csv/preview-csv.server";
+import type { RefusedLines } from "./csv/preview-csv.server";
 import { db } from "../platform/db.server";
 import { env } from "../platform/env.server";
 import { type SaveRevisionResult, saveRevision } from "./dataset-repository.server";
@@ -76,7 +76,8 @@ export function pendingPath(id: string): string | null {
 
 /**
  * Validates a received file against the mapping and stores it as the next revision, or
- * refuses it whole. Nothing is kept of a refused file.
+ * refuses it whole. A refused file is deleted, unless `keepRefused` keeps a file refused for
+ * its problems waiting for another mapping (the mapping step); nothing of it is stored.
  */
 export async function ingestUpload(args: {
   manuscriptId: string;
@@ -92,17 +93,18 @@ export async function ingestUpload(args: {
    * refusal caused by the mapping can be answered with another mapping, not another upload.
    */
   keepRefused?: boolean;
+  /** Return the refused lines with the problems, for a page that shows the bad cells. */
+  refusedLines?: boolean;
 }): Promise<UploadOutcome> {
   const st = blobStore();
   // On a worker thread: seconds of parsing must not hold the event loop (decision 0012).
-  const result = await ingestCsvOffThread(args.tempPath, { mapping: args.mapping, quantity: args.quantity, limits: { maxRows: env.UPLOAD_MAX_ROWS } });
+  const result = await ingestCsvOffThread(args.tempPath, { mapping: args.mapping, quantity: args.quantity, limits: { maxRows: env.UPLOAD_MAX_ROWS }, refusedLines: args.refusedLines });
   if (!result.ok) {
-    // The lines the problems point at, read before the file is discarded, to show the bad cells.
-    const refused = result.reason === "problems" ? await readRefusedLines(args.tempPath, result.problems.flatMap((p) => (p.row !== null && p.column !== null ? [p.row] : []))) : null;
-    if (!args.keepRefused) await st.discard(args.tempPath);
+    // Kept only where another mapping could make the file good: a file over the row limit stays over it.
+    if (!(args.keepRefused && result.reason === "problems")) await st.discard(args.tempPath);
     const detail = result.reason === "problems" ? { problemCount: result.problemCount, fileName: args.raw.fileName } : { limit: result.limit, fileName: args.raw.fileName };
     await recordAudit(db, { action: "revision-rejected", actorId: args.userId, manuscriptId: args.manuscriptId, ip: args.ip, detail: { datasetId: args.datasetId, ...detail } });
-    return result.reason === "problems" ? { kind: "problems", problems: result.problems, problemCount: result.problemCount, refused } : { kind: "limit", limit: result.limit };
+    return result.reason === "problems" ? { kind: "problems", problems: result.problems, problemCount: result.problemCount, refused: result.refused } : { kind: "limit", limit: result.limit };
   }
   const existing = await db.selectFrom("dataset_revision").select(["id", "number", "row_count"]).where("dataset_id", "=", args.datasetId).where("content_hash", "=", result.hash).executeTakeFirst();
   let saved: SaveRevisionResult;

@@ -8,6 +8,7 @@ import { normalFormHeader, SLOT } from "~/datasets/normal-form";
 import { ProblemCollector } from "~/datasets/problem-collector";
 import { X_LABELS, type QuantityDescription } from "~/datasets/quantity";
 import { createRowValidator, type RowValidator } from "~/datasets/row-validator";
+import { readRefusedLines, type RefusedLines } from "./preview-csv.server";
 import { readCsvRecords, STOP } from "./read-csv-records.server";
 
 export interface IngestOptions {
@@ -15,6 +16,11 @@ export interface IngestOptions {
   /** Must have passed `quantitySchema`. */
   quantity: QuantityDescription;
   limits: { maxRows: number };
+  /**
+   * On refusal, also read the lines the problems point at, as the file has them, for the page
+   * that shows the bad cells (read here, on the ingest's worker thread, not on the event loop).
+   */
+  refusedLines?: boolean;
 }
 
 /**
@@ -42,7 +48,7 @@ export type IngestResult =
       delimiter: CsvDelimiter;
       headers: string[];
     }
-  | { ok: false; reason: "problems"; problems: DatasetProblem[]; problemCount: number }
+  | { ok: false; reason: "problems"; problems: DatasetProblem[]; problemCount: number; refused: RefusedLines | null }
   | { ok: false; reason: "limit"; limit: { kind: "rows"; max: number } };
 
 const HASH_FLUSH_CHARS = 1 << 16;
@@ -128,7 +134,9 @@ export async function ingestCsv(filePath: string, options: IngestOptions): Promi
   if (v !== null && s !== null && rowCount > 0) reportDuplicates(v, s, quantity, problems);
 
   if (!problems.isEmpty || v === null || s === null || headers === null) {
-    return { ok: false, reason: "problems", problems: sortByLine(problems.problems), problemCount: problems.count };
+    const sorted = sortByLine(problems.problems);
+    const refused = options.refusedLines ? await readRefusedLines(filePath, sorted) : null;
+    return { ok: false, reason: "problems", problems: sorted, problemCount: problems.count, refused };
   }
   hash.update(pendingText);
   return {
