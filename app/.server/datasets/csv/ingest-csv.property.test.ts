@@ -51,7 +51,9 @@ function checkInvariants(r: IngestResult): void {
   if (!r.ok) {
     expect(r.reason).toBe("problems");
     if (r.reason !== "problems") return;
-    expect(Object.keys(r).sort()).toEqual(["ok", "problemCount", "problems", "reason"]);
+    expect(Object.keys(r).sort()).toEqual(["ok", "problemCount", "problems", "reason", "refused"]);
+    // The refused lines are read only when asked for (the page asks; these calls do not).
+    expect(r.refused).toBeNull();
     expect(r.problems.length).toBeGreaterThan(0);
     expect(r.problems.length).toBeLessThanOrEqual(100);
     expect(r.problemCount).toBeGreaterThanOrEqual(r.problems.length);
@@ -174,5 +176,29 @@ describe("ingestCsv on arbitrary input", () => {
     // Both outcomes must actually occur, or the property says little.
     expect(accepted).toBeGreaterThan(0);
     expect(refused).toBeGreaterThan(0);
+  }, PROPERTY_TIMEOUT_MS);
+
+  it("reads the refused lines of a mutated file when asked: only lines problems point at, within the caps, never an exception", async () => {
+    let shown = 0;
+    await fc.assert(
+      fc.asyncProperty(fc.array(mutation, { minLength: 1, maxLength: 4 }), async (mutations) => {
+        const file = path.join(dir, `p${n++}.csv`);
+        await writeFile(file, applyMutations(GOOD, mutations));
+        const r = await ingestCsv(file, { mapping: MAPPING, quantity: QUANTITY, limits: { maxRows: 10_000 }, refusedLines: true });
+        if (r.ok || r.reason !== "problems" || r.refused === null) return;
+        shown++;
+        const pointed = new Set(r.problems.flatMap((p) => (p.row !== null && p.column !== null ? [p.row] : [])));
+        expect(r.refused.rows.length).toBeGreaterThan(0);
+        expect(r.refused.rows.length).toBeLessThanOrEqual(20);
+        expect(r.refused.headers.length).toBe(r.refused.columns.length);
+        for (const row of r.refused.rows) {
+          expect(pointed.has(row.line)).toBe(true);
+          expect(row.fields.length).toBe(r.refused.columns.length);
+          for (const f of row.fields) expect(f.length).toBeLessThanOrEqual(41);
+        }
+      }),
+      { numRuns: 300 },
+    );
+    expect(shown).toBeGreaterThan(0);
   }, PROPERTY_TIMEOUT_MS);
 });
