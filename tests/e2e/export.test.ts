@@ -44,10 +44,13 @@ describe("exporting the demo's signed-off version", () => {
 
     await signInAs(browser.context, page, DEMO.corresponding);
     await page.goto(versionUrl);
-    await page.getByTestId("preflight").waitFor({ timeout: 120_000 });
-    const checks = await page.locator('[data-testid^="preflight-"]').count();
+    // Scoped to the panel: while the streamed preflight arrives, React holds a hidden copy of it
+    // outside the panel until it swaps it in, and an unscoped locator can see both.
+    const panel = page.getByTestId("export-panel");
+    await panel.getByTestId("preflight").waitFor({ timeout: 120_000 });
+    const checks = await panel.locator('[data-testid^="preflight-"]').count();
     expect(checks).toBe(9);
-    await expect(page.getByTestId("preflight-text-size").textContent()).resolves.toMatch(/Smallest text.*(passes|fails)\d+(\.\d+)? pt/);
+    await expect(panel.getByTestId("preflight-text-size").textContent()).resolves.toMatch(/Smallest text.*(passes|fails)\d+(\.\d+)? pt/);
     const before = await page.getByTestId("export").count();
     const override = page.getByLabel(/Why export despite/);
     if (await override.count()) await override.fill("Checked with the journal's production office.");
