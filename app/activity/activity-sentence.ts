@@ -129,14 +129,18 @@ class Builder {
    * that would not be there.
    */
   private named(kind: "dataset" | "figure", id: string | null, recorded: string | null) {
-    const current = id !== null ? (kind === "dataset" ? this.names.datasets[id] : this.names.figures[id]) : undefined;
+    const current = this.currentName(kind, id);
     if (current !== undefined && this.m) return this.link(`“${current}”`, `${this.m}/${kind}s/${id}`);
     if (current !== undefined) return this.text(`“${current}”`);
     if (id === null) return this.text(recorded !== null ? `“${recorded}”` : `a ${kind}`);
     return this.text(recorded !== null ? `“${recorded}” (no longer in this manuscript)` : `a ${kind} no longer in this manuscript`);
   }
+  /** The name the server found for a dataset or figure of this manuscript; undefined once it is not there. */
+  private currentName(kind: "dataset" | "figure", id: string | null): string | undefined {
+    return id === null ? undefined : (kind === "dataset" ? this.names.datasets : this.names.figures)[id];
+  }
   private exists(kind: "dataset" | "figure", id: string | null): id is string {
-    return id !== null && (kind === "dataset" ? this.names.datasets[id] : this.names.figures[id]) !== undefined;
+    return this.currentName(kind, id) !== undefined;
   }
   dataset() {
     return this.named("dataset", str(this.d, "datasetId"), str(this.d, "name"));

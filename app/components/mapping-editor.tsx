@@ -28,8 +28,10 @@ export function MappingEditor({ pending, fileName, preview, saved, busy, errors 
     <>
       <p className="mt-1 text-sm text-ink-soft">
         Separated by {delim}; {preview.headers.length} columns.
-        {usedSaved ? " Pre-filled from the mapping of the previous revision." : saved ? " The saved mapping names columns this file does not have." : ""}
-        {usedSaved ? "" : preview.guess.guessed.length ? ` Guessed from the headers: ${preview.guess.guessed.join(", ")}. Check each choice.` : " Nothing could be guessed from the headers."}
+        {usedSaved ? " Pre-filled from the mapping of the previous revision." : (
+          (saved ? " The saved mapping names columns this file does not have." : "") +
+          (preview.guess.guessed.length ? ` Guessed from the headers: ${preview.guess.guessed.join(", ")}. Check each choice.` : " Nothing could be guessed from the headers.")
+        )}
       </p>
       <div className="mt-3 overflow-x-auto">
         <table className="text-sm">

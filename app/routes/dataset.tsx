@@ -156,8 +156,7 @@ export default function DatasetPage() {
         {result?.kind === "problems" ? <ProblemList problems={result.problems} problemCount={result.problemCount} refused={result.refused} /> : null}
       </div>
 
-      {/* A waiting file that is gone by the time of a refusal (used in another tab, or swept at a restart): the problems above say what to correct. */}
-      {mappingStep && !(mappingStep.gone && result?.kind === "problems") ? (
+      {mappingStep ? (
         <section aria-labelledby="map-h" className="mt-6 border border-rule bg-sheet p-5">
           <h3 id="map-h" className="text-xl">Map the columns of “{mappingStep.fileName}”</h3>
           {mappingStep.gone ? <p className="mt-2">This upload is no longer waiting. Upload the file again.</p>

@@ -4,6 +4,7 @@ import { mkdtempSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import path from "node:path";
 import AxeBuilder from "@axe-core/playwright";
+import type { Page } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { launchBrowser, signInAs } from "../support/browser";
 import { testEnv } from "../support/env";
@@ -17,6 +18,16 @@ const file = (name: string, text: string) => {
   return p;
 };
 
+/** Creates a dataset of dσ/dΩ in µb/sr against θ (CM) in the demo manuscript and opens its page. */
+async function createDataset(page: Page, title: string): Promise<void> {
+  await page.goto(`${testEnv.appUrl}/manuscripts/${DEMO.manuscriptId}/datasets`);
+  const name = `${title} (browser ${Date.now()})`;
+  await page.getByLabel("Name", { exact: true }).fill(name);
+  await page.getByLabel("Unit of y").fill("ub/sr");
+  await page.getByRole("button", { name: "Create dataset" }).click();
+  await page.getByRole("heading", { name }).waitFor();
+}
+
 beforeAll(async () => {
   browser = await launchBrowser();
 });
@@ -28,18 +39,8 @@ describe("datasets in the browser", () => {
     const page = await browser.context.newPage();
     const errors: string[] = [];
     page.on("pageerror", (e) => errors.push(e.message));
-    await page.goto(`${testEnv.appUrl}/sign-in`);
-    await page.getByLabel("E-mail address").fill(DEMO.contributor);
-    await page.getByLabel("Password").fill(DEMO.password);
-    await page.getByRole("button", { name: "Sign in" }).click();
-    await page.waitForURL(/\/manuscripts$/);
-
-    await page.goto(`${testEnv.appUrl}/manuscripts/${DEMO.manuscriptId}/datasets`);
-    const name = `Angular distribution (browser ${Date.now()})`;
-    await page.getByLabel("Name", { exact: true }).fill(name);
-    await page.getByLabel("Unit of y").fill("ub/sr");
-    await page.getByRole("button", { name: "Create dataset" }).click();
-    await page.getByRole("heading", { name }).waitFor();
+    await signInAs(browser.context, page, DEMO.contributor);
+    await createDataset(page, "Angular distribution");
 
     const good = "theta_cm,theta_lo,theta_hi,dsigma,stat\n30,25,35,1.5,0.1\n45,40,50,1.2,0.08\n60,55,65,0.95,0.07\n";
     await page.getByLabel("CSV file").setInputFiles(file("first.csv", good));
@@ -91,20 +92,8 @@ describe("datasets in the browser", () => {
     const page = await browser.context.newPage();
     const errors: string[] = [];
     page.on("pageerror", (e) => errors.push(e.message));
-    const signIn = async (email: string) => {
-      await page.goto(`${testEnv.appUrl}/sign-in`);
-      await page.getByLabel("E-mail address").fill(email);
-      await page.getByLabel("Password").fill(DEMO.password);
-      await page.getByRole("button", { name: "Sign in" }).click();
-      await page.waitForURL(/\/manuscripts$/);
-    };
-    await signIn(DEMO.contributor);
-    await page.goto(`${testEnv.appUrl}/manuscripts/${DEMO.manuscriptId}/datasets`);
-    const name = `Abbreviated headers (browser ${Date.now()})`;
-    await page.getByLabel("Name", { exact: true }).fill(name);
-    await page.getByLabel("Unit of y").fill("ub/sr");
-    await page.getByRole("button", { name: "Create dataset" }).click();
-    await page.getByRole("heading", { name }).waitFor();
+    await signInAs(browser.context, page, DEMO.contributor);
+    await createDataset(page, "Abbreviated headers");
     const datasetUrl = page.url();
 
     await page.getByLabel("CSV file").setInputFiles(file("abbrev.csv", "theta_cm,dsdo_ub_sr,stat\n30,1.5,0.1\n45,1.2,0.08\n"));
@@ -126,8 +115,7 @@ describe("datasets in the browser", () => {
     await page.getByText("Stored as revision").waitFor();
     await expect(page.getByLabel("CSV file").inputValue()).resolves.toBe("");
 
-    await browser.context.clearCookies();
-    await signIn(DEMO.coauthor);
+    await signInAs(browser.context, page, DEMO.coauthor);
     await page.goto(datasetUrl);
     await page.getByTestId("read-only-reason").getByText("You are a co-author of this manuscript").waitFor();
     await expect(page.getByLabel("CSV file").count()).resolves.toBe(0);
@@ -141,12 +129,7 @@ describe("datasets in the browser", () => {
     const errors: string[] = [];
     page.on("pageerror", (e) => errors.push(e.message));
     await signInAs(browser.context, page, DEMO.contributor);
-    await page.goto(`${testEnv.appUrl}/manuscripts/${DEMO.manuscriptId}/datasets`);
-    const name = `Edges only (browser ${Date.now()})`;
-    await page.getByLabel("Name", { exact: true }).fill(name);
-    await page.getByLabel("Unit of y").fill("ub/sr");
-    await page.getByRole("button", { name: "Create dataset" }).click();
-    await page.getByRole("heading", { name }).waitFor();
+    await createDataset(page, "Edges only");
 
     // A letter O typed for a zero: "4O.2" reads as 40.2 in a plain table.
     await page.getByLabel("CSV file").setInputFiles(file("edges-typo.csv", "theta_lo,theta_hi,dsdo_ub_sr,stat\n20,30,4O.2,0.5\n30,45,35.1,0.4\n"));
